@@ -1,0 +1,1 @@
+"""spanstay trade layer: scenarios, catalogs, anchors, the line, checks, outputs."""
