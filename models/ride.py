@@ -339,8 +339,9 @@ def ride_speed(
     cos_pt[0], cos_pt[-1] = cos_t[0], cos_t[-1]
     cos_pt[1:-1] = np.cos(0.5 * (theta[:-1] + theta[1:]))
     kappa = np.zeros(n)
-    if centripetal:
+    if centripetal and n > 2:
         kappa[1:-1] = turn / (0.5 * (seg[:-1] + seg[1:]))
+        kappa[0], kappa[-1] = kappa[1], kappa[-2]  # end points: nearest turn
     normal = cos_pt + (speed * speed * kappa / g if g > 0 else 0.0)
     normal = np.where(reached, normal, np.nan)
     k_n = int(np.nanargmin(normal))
