@@ -304,13 +304,12 @@ def ride_speed(
         if j > 0:
             e *= vertex_loss[j - 1]
         e_start[j] = e
-        aj = a[j]
-        if aj <= 0.0:
-            if e <= 0.0:
-                stop_seg, stop_len = j, 0.0
-                break
-            x = e * b[j] / -aj
-            s_stop = np.log1p(x) / b[j] if b[j] > 0.0 else e / -aj
+        aj = float(a[j])
+        if e <= 0.0 and aj <= 0.0:  # at rest with nothing pulling it on
+            stop_seg, stop_len = j, 0.0
+            break
+        if aj < 0.0:  # net resistance: E falls to zero after s_stop
+            s_stop = np.log1p(e * b[j] / -aj) / b[j] if b[j] > 0.0 else e / -aj
             if s_stop < seg[j]:
                 stop_seg, stop_len = j, float(s_stop)
                 break
