@@ -47,6 +47,11 @@ def _display(units: Units, quantity: str) -> tuple[float, str]:
         raise ValueError(f"units must be 'si' or 'us', got {units!r}") from None
 
 
+def _number(value: float) -> str:
+    """Short display form: 3 significant figures, thousands separated."""
+    return f"{value:,.0f}" if abs(value) >= 100.0 else f"{value:.3g}"
+
+
 def _new_figure(size_px: tuple[int, int], dpi: int):
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.figure import Figure
@@ -54,9 +59,12 @@ def _new_figure(size_px: tuple[int, int], dpi: int):
     width, height = (int(v) for v in size_px)
     if width < 100 or height < 100 or dpi <= 0:
         raise ValueError(f"plot size must be at least 100 x 100 px, got {size_px}")
-    fig = Figure(figsize=(width / dpi, height / dpi), dpi=dpi, facecolor=_PAPER,
-                 layout="constrained")
+    fig = Figure(figsize=(width / dpi, height / dpi), dpi=dpi, facecolor=_PAPER)
     FigureCanvasAgg(fig)
+    # Fixed margins in pixels (cheaper than an automatic layout engine).
+    scale = dpi / 100.0
+    fig.subplots_adjust(left=75 * scale / width, right=1.0 - 20 * scale / width,
+                        bottom=55 * scale / height, top=1.0 - 38 * scale / height)
     ax = fig.add_subplot()
     ax.set_facecolor(_PAPER)
     ax.grid(True, color=_GRID, linewidth=0.8)
@@ -262,7 +270,7 @@ def plot_tension(
                 color=_SERIES[i % len(_SERIES)])
     if allowable is not None:
         ax.axhline(allowable / kf, color=_MARK, linewidth=1.5, linestyle=(0, (3, 3)),
-                   label=f"allowed {allowable / kf:.3g} {uf}")
+                   label=f"allowed {_number(allowable / kf)} {uf}")
     ax.set_ylim(bottom=0.0)
     ax.set_xlabel(f"rider position along the line [{ul}]", color=_INK)
     ax.set_ylabel(f"tension [{uf}]", color=_INK)

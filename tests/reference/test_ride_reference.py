@@ -293,3 +293,19 @@ def test_clearance_sagging_parabola_over_slope_matches_calculus() -> None:
     c = feet_clearance(x, 10.0 - 0.3 * x + 0.002 * x**2, 1.6, [0.0, 100.0], [5.0, -5.0])
     assert c.minimum == pytest.approx(-1.6, abs=1e-9)
     assert c.minimum_distance == pytest.approx(50.0)
+
+
+def test_level_line_without_losses_keeps_its_speed_and_drag_decays_it() -> None:
+    # Newton's first law: on a level, frictionless line the speed stays v0.
+    # With drag only, dE/ds = -k E, so v = v0 exp(-k s / 2), k = rho CdA / m
+    # (Newtonian mechanics).
+    x = np.linspace(0.0, 40.0, 21)
+    z = np.zeros_like(x)
+    r = ride_speed(x, z, 70.0, start_speed=3.0)
+    np.testing.assert_allclose(r.speed, 3.0, rtol=1e-12)
+    assert r.arrival_time == pytest.approx(40.0 / 3.0, rel=1e-12)
+    r = ride_speed(x, z, 70.0, start_speed=3.0, drag_area=0.5)
+    k = RHO * 0.5 / 70.0
+    np.testing.assert_allclose(r.speed, 3.0 * np.exp(-k * x / 2.0), rtol=1e-9)
+    # Time: integral of exp(k s / 2) / v0 ds = 2 (exp(k L / 2) - 1) / (k v0).
+    assert r.arrival_time == pytest.approx(2.0 * np.expm1(k * 20.0) / (k * 3.0), rel=1e-9)
