@@ -1,0 +1,120 @@
+"""The interface every element group implements."""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+DOF_NAMES = ("ux", "uy", "uz", "rx", "ry", "rz")
+
+
+@dataclass
+class Evaluation:
+    """Element internal forces and tangents of one group.
+
+    Attributes
+    ----------
+    force
+        (ne, nde) internal force vectors (what the element pulls on its nodes,
+        with a minus sign: residual = external - internal).
+    tangent
+        (ne, nde, nde) tangent matrices, or None when not requested.
+    """
+
+    force: np.ndarray
+    tangent: np.ndarray | None
+
+
+class ElementGroup:
+    """Base class: a set of elements of one kind evaluated together.
+
+    Subclasses set ``name``, ``conn`` (ne, nodes per element) and implement
+    :meth:`global_dofs`, :meth:`stiffened`, :meth:`evaluate` and
+    :meth:`results`.
+    """
+
+    name: str
+    conn: np.ndarray
+    kind: str = "element"
+
+    @property
+    def size(self) -> int:
+        return int(self.conn.shape[0])
+
+    def global_dofs(self) -> np.ndarray:
+        """(ne, nde) full DOF indices (node * 6 + dof) of each element vector."""
+        raise NotImplementedError
+
+    def stiffened(self) -> np.ndarray:
+        """(ne, nde) bool: which entries of the element vector give stiffness."""
+        return np.ones(self.global_dofs().shape, dtype=bool)
+
+    def evaluate(self, x: np.ndarray, rot: np.ndarray, disp: np.ndarray,
+                 tangent: bool = True) -> Evaluation:
+        """Internal forces (and tangents) at current positions ``x`` (n, 3),
+        rotations ``rot`` (n, 3, 3) and displacements ``disp`` (n, 6)."""
+        raise NotImplementedError
+
+    def external(self, gravity: np.ndarray) -> np.ndarray | None:
+        """(ne, nde) equivalent nodal loads the group carries itself (self-weight)."""
+        return None
+
+    def results(self, x: np.ndarray, rot: np.ndarray, disp: np.ndarray) -> dict[str, np.ndarray]:
+        """Named result arrays of the group for the given state."""
+        return {}
+
+    def label(self, i: int) -> str:
+        """Human name of element ``i`` for messages."""
+        return f"{self.kind} '{self.name}'[{i}]"
+
+
+def translation_dofs(conn: np.ndarray) -> np.ndarray:
+    """(ne, 3 * nn) full DOF indices of the translations of each node."""
+    base = conn[:, :, None] * 6 + np.arange(3)[None, None, :]
+    return base.reshape(conn.shape[0], -1)
+
+
+def all_dofs(conn: np.ndarray) -> np.ndarray:
+    """(ne, 6 * nn) full DOF indices of all six DOFs of each node."""
+    base = conn[:, :, None] * 6 + np.arange(6)[None, None, :]
+    return base.reshape(conn.shape[0], -1)
+
+
+def central_difference_tangent(force_fn, x1, x2, r1, r2, steps_t, steps_r) -> np.ndarray:
+    """Tangent of a two-node element force by central differences, vectorised.
+
+    ``force_fn(x1, x2, r1, r2)`` returns (ne, 12) forces for positions (ne, 3)
+    and rotation matrices (ne, 3, 3). Translations are perturbed by
+    ``steps_t`` (ne,) and rotations by left spins of ``steps_r`` (ne,); all 24
+    perturbed states are evaluated in one batched call.
+    """
+    from .rotation import expmap
+
+    ne = x1.shape[0]
+    eye = np.eye(3)
+    bx1 = np.repeat(x1[None], 24, axis=0)
+    bx2 = np.repeat(x2[None], 24, axis=0)
+    br1 = np.repeat(r1[None], 24, axis=0)
+    br2 = np.repeat(r2[None], 24, axis=0)
+    for col in range(12):
+        node, kind, axis = col // 6, (col % 6) // 3, col % 3
+        for sgn, row in ((1.0, 2 * col), (-1.0, 2 * col + 1)):
+            if kind == 0:
+                step = sgn * steps_t[:, None] * eye[axis][None, :]
+                if node == 0:
+                    bx1[row] += step
+                else:
+                    bx2[row] += step
+            else:
+                spin = expmap(sgn * steps_r[:, None] * eye[axis][None, :])
+                if node == 0:
+                    br1[row] = spin @ br1[row]
+                else:
+                    br2[row] = spin @ br2[row]
+    f = force_fn(bx1.reshape(-1, 3), bx2.reshape(-1, 3),
+                 br1.reshape(-1, 3, 3), br2.reshape(-1, 3, 3)).reshape(24, ne, 12)
+    h = np.empty((12, ne))
+    h[[0, 1, 2, 6, 7, 8]] = steps_t
+    h[[3, 4, 5, 9, 10, 11]] = steps_r
+    k = (f[0::2] - f[1::2]) / (2.0 * h[:, :, None])  # (12 cols, ne, 12 rows)
+    return np.transpose(k, (1, 2, 0))

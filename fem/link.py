@@ -1,0 +1,121 @@
+"""Two-node connector with rigid offsets and a stiffness per local direction.
+
+Each end has a rigid arm (offset) from its node to a connection point; linear
+springs along the link's local axes join the two points (translations) and
+the two nodes' rotations. Local axes follow node 1's rotation. Used for
+fasteners between plies or a guy attached to the face of a post.
+"""
+from __future__ import annotations
+
+import numpy as np
+
+from .checks import as_array, positive
+from .errors import ModelError
+from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .rotation import logmap
+
+
+class LinkGroup(ElementGroup):
+    """A group of two-node links.
+
+    Parameters
+    ----------
+    stiffness
+        (ne, 6) or (6,): kx, ky, kz (N/m) and krx, kry, krz (N m/rad) in local axes.
+    offset1, offset2
+        (ne, 3) rigid arms from node 1 / node 2 to their connection points (m).
+    axes
+        (ne, 3, 3) or (3, 3): rows are the local x, y, z directions (global).
+    """
+
+    kind = "link"
+
+    def __init__(self, name: str, conn: np.ndarray, coords: np.ndarray, stiffness,
+                 offset1=0.0, offset2=0.0, axes=np.eye(3)) -> None:
+        self.name = name
+        self.conn = conn
+        ne = conn.shape[0]
+        what = f"link group '{name}'"
+        self.k = as_array("stiffness", stiffness, (ne, 6), what + ": ")
+        positive("stiffness", self.k.min(axis=1), what, allow_zero=True)
+        self.o1 = as_array("offset1", offset1, (ne, 3), what + ": ")
+        self.o2 = as_array("offset2", offset2, (ne, 3), what + ": ")
+        a = as_array("axes", axes, (ne, 3, 3), what + ": ")
+        norms = np.linalg.norm(a, axis=2)
+        if np.any(norms < 1e-12):
+            raise ModelError(f"{what}: an axis vector has zero length")
+        a = a / norms[:, :, None]
+        ortho = np.abs(a @ np.transpose(a, (0, 2, 1)) - np.eye(3)).max(axis=(1, 2))
+        if np.any(ortho > 1e-6):
+            i = int(np.argmax(ortho))
+            raise ModelError(f"{what} element {i}: local axes must be mutually perpendicular")
+        self.axes = a
+        self.gap0 = coords[conn[:, 1]] + self.o2 - coords[conn[:, 0]] - self.o1
+        if np.any(conn[:, 0] == conn[:, 1]):
+            i = int(np.argmax(conn[:, 0] == conn[:, 1]))
+            raise ModelError(f"{what} element {i}: both ends on node {conn[i, 0]}")
+        self.length_scale = max(1e-3, float(np.max(np.linalg.norm(coords, axis=1), initial=1.0)) * 1e-3)
+
+    def global_dofs(self) -> np.ndarray:
+        return all_dofs(self.conn)
+
+    def stiffened(self) -> np.ndarray:
+        m = np.zeros((self.size, 12), dtype=bool)
+        trans = np.any(self.k[:, :3] > 0, axis=1)
+        rot = np.any(self.k[:, 3:] > 0, axis=1)
+        m[:, 0:3] = trans[:, None]
+        m[:, 6:9] = trans[:, None]
+        arm1 = (np.linalg.norm(self.o1, axis=1) > 0) | (np.linalg.norm(self.gap0, axis=1) > 0)
+        arm2 = np.linalg.norm(self.o2, axis=1) > 0
+        m[:, 3:6] = (rot | (arm1 & trans))[:, None]
+        m[:, 9:12] = (rot | (arm2 & trans))[:, None]
+        return m
+
+    def _forces(self, x1, x2, r1, r2, axes, o1, o2, gap0, k):
+        a1 = np.einsum("nij,nj->ni", r1, o1)
+        a2 = np.einsum("nij,nj->ni", r2, o2)
+        gap = x2 + a2 - x1 - a1
+        r1t = np.transpose(r1, (0, 2, 1))
+        slip = np.einsum("nij,nj->ni", axes, np.einsum("nij,nj->ni", r1t, gap) - gap0)
+        phi = np.einsum("nij,nj->ni", axes, logmap(r1t @ r2))
+        f_loc = k[:, :3] * slip
+        m_loc = k[:, 3:] * phi
+        to_global = r1 @ np.transpose(axes, (0, 2, 1))
+        f = np.einsum("nij,nj->ni", to_global, f_loc)
+        m = np.einsum("nij,nj->ni", to_global, m_loc)
+        out = np.empty((x1.shape[0], 12))
+        out[:, 0:3] = -f
+        out[:, 3:6] = -m - np.cross(a1, f) - np.cross(gap, f)
+        out[:, 6:9] = f
+        out[:, 9:12] = m + np.cross(a2, f)
+        return out, slip, phi, f_loc, m_loc
+
+    def _state(self, x, rot):
+        c = self.conn
+        return x[c[:, 0]], x[c[:, 1]], rot[c[:, 0]], rot[c[:, 1]]
+
+    def _consts(self, reps=1):
+        if reps == 1:
+            return self.axes, self.o1, self.o2, self.gap0, self.k
+        return (np.tile(self.axes, (reps, 1, 1)), np.tile(self.o1, (reps, 1)),
+                np.tile(self.o2, (reps, 1)), np.tile(self.gap0, (reps, 1)), np.tile(self.k, (reps, 1)))
+
+    def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
+        x1, x2, r1, r2 = self._state(x, rot)
+        f = self._forces(x1, x2, r1, r2, *self._consts())[0]
+        if not tangent:
+            return Evaluation(f, None)
+        consts = self._consts(24)
+
+        def force_fn(a, b, c, d):
+            return self._forces(a, b, c, d, *consts)[0]
+
+        k = central_difference_tangent(force_fn, x1, x2, r1, r2,
+                                       steps_t=np.full(self.size, 1e-7 * self.length_scale),
+                                       steps_r=np.full(self.size, 1e-7))
+        return Evaluation(f, k)
+
+    def results(self, x, rot, disp) -> dict[str, np.ndarray]:
+        x1, x2, r1, r2 = self._state(x, rot)
+        _, slip, phi, f_loc, m_loc = self._forces(x1, x2, r1, r2, *self._consts())
+        return {"slip": slip, "rotation": phi, "force": f_loc, "moment": m_loc}

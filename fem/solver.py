@@ -1,0 +1,285 @@
+"""Newton-Raphson with line search and adaptive load increments."""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Callable
+
+import numpy as np
+import scipy.sparse.linalg as spla
+
+from .assembly import Assembler
+from .errors import ConvergenceError, ImbalanceSite, ModelError
+from .group import DOF_NAMES
+from .rotation import expmap
+from .state import State
+
+
+@dataclass
+class SolverOptions:
+    """Tolerances and limits of :func:`solve`.
+
+    force_tol: residual norm relative to the applied-load (or reaction) norm.
+    disp_tol: last correction norm relative to the displacement norm.
+    """
+
+    force_tol: float = 1e-8
+    disp_tol: float = 1e-7
+    max_iterations: int = 25
+    min_increment: float = 1e-5
+    grow: float = 1.5
+    line_search: bool = True
+
+
+@dataclass
+class Timings:
+    """Wall time spent in sparse factorisation + solve, and calls made."""
+
+    linear_algebra: float = 0.0
+    factorisations: int = 0
+
+
+TIMINGS = Timings()
+
+
+def _assembler(model) -> Assembler:
+    sig = (model.n_nodes, tuple(id(g) for g in model.groups), tuple(sorted(model.fixed)),
+           tuple(sorted(k for k, v in model.loads.items() if v != 0.0)))
+    cached = getattr(model, "_assembler", None)
+    if cached is not None and cached[0] == sig:
+        return cached[1]
+    asm = Assembler(model)
+    model._assembler = (sig, asm)
+    return asm
+
+
+def _evaluate(model, coords, state, tangent):
+    x = coords + state.translation
+    disp = np.zeros((model.n_nodes, 6))
+    disp[:, :3] = state.translation
+    return [g.evaluate(x, state.rotation, disp, tangent) for g in model.groups]
+
+
+def _apply_increment(state: State, asm: Assembler, delta_full: np.ndarray, alpha: float) -> State:
+    new = state.copy()
+    d = alpha * delta_full.reshape(-1, 6)
+    new.translation += d[:, :3]
+    spin = d[:, 3:]
+    moving = np.any(spin != 0.0, axis=1)
+    if np.any(moving):
+        new.rotation[moving] = expmap(spin[moving]) @ new.rotation[moving]
+    return new
+
+
+def _factorise(k, asm: Assembler, model):
+    import time
+    t0 = time.perf_counter()
+    diag = k.diagonal()
+    zero = np.flatnonzero(np.abs(diag) <= 1e-300)
+    if zero.size:
+        full = asm.free[zero[0]]
+        raise ModelError(f"the model is a mechanism: node {full // 6} {DOF_NAMES[full % 6]} has no "
+                         f"stiffness (add a support or an element that restrains it); "
+                         f"elements there: {', '.join(asm.elements_at(full // 6)) or 'none'}")
+    try:
+        lu = spla.splu(k.tocsc(), permc_spec="COLAMD")
+    except RuntimeError:
+        raise ModelError("the model is a mechanism: the stiffness matrix is singular "
+                         "(a part is not held against rigid-body motion)") from None
+    finally:
+        TIMINGS.linear_algebra += time.perf_counter() - t0
+        TIMINGS.factorisations += 1
+    return lu
+
+
+def _solve_linear(lu, r):
+    import time
+    t0 = time.perf_counter()
+    out = lu.solve(r)
+    TIMINGS.linear_algebra += time.perf_counter() - t0
+    return out
+
+
+def _residual(asm, evals, f_ext):
+    f_int = asm.internal(evals)
+    r_full = f_ext - f_int
+    return r_full, f_int
+
+
+def _sites(asm, r_full, count=3) -> list[ImbalanceSite]:
+    r_free = np.zeros_like(r_full)
+    r_free[asm.free] = r_full[asm.free]
+    worst = np.argsort(-np.abs(r_free))[:count]
+    return [ImbalanceSite(int(k // 6), DOF_NAMES[k % 6], float(r_full[k]), asm.elements_at(int(k // 6)))
+            for k in worst if r_free[k] != 0.0]
+
+
+def _newton(model, asm, coords, state, f_ext, opts):
+    """Iterate to equilibrium under f_ext; return (state, history) or raise _Fail."""
+    history: list[float] = []
+    evals = _evaluate(model, coords, state, True)
+    r_full, f_int = _residual(asm, evals, f_ext)
+    for it in range(opts.max_iterations + 1):
+        ref = max(np.linalg.norm(f_ext), np.linalg.norm(f_int), 1e-30)
+        rel = float(np.linalg.norm(r_full[asm.free]) / ref)
+        history.append(rel)
+        if not np.isfinite(rel):
+            raise _Fail("the residual is not finite", history, r_full)
+        if it > 0 and rel <= opts.force_tol and last_disp_ok:
+            return state, history, evals
+        if it == 0 and rel <= opts.force_tol * 1e-2:
+            return state, history, evals
+        if it == opts.max_iterations:
+            break
+        k = asm.tangent(evals)
+        lu = _factorise(k, asm, model)
+        delta = _solve_linear(lu, r_full[asm.free])
+        if not np.all(np.isfinite(delta)):
+            raise _Fail("the linear solve gave non-finite corrections", history, r_full)
+        delta_full = np.zeros(asm.n_full)
+        delta_full[asm.free] = delta
+        alpha, state, evals, r_full, f_int = _line_search(model, asm, coords, state, delta_full,
+                                                          f_ext, r_full[asm.free],
+                                                          opts.line_search and _stalled(history))
+        u_norm = np.linalg.norm(state.translation) + 1e-12
+        d_norm = alpha * np.linalg.norm(delta_full.reshape(-1, 6)[:, :3])
+        last_disp_ok = d_norm <= opts.disp_tol * u_norm or d_norm < 1e-14
+    raise _Fail(f"not converged in {opts.max_iterations} iterations", history, r_full)
+
+
+def _line_search(model, asm, coords, state, delta_full, f_ext, r0, active):
+    """Step length along the Newton direction.
+
+    The full Newton step is taken while Newton behaves: one good step can
+    raise the residual for an iteration (the axial force of a stiff member
+    after a bending step), so a residual test on every step would only slow
+    it. When ``active`` (the residual has stopped falling), the step is
+    halved until the residual norm drops below its start value (at most five
+    times; the best trial is kept).
+    """
+    r0n = float(np.linalg.norm(r0))
+    best = None
+    alpha = 1.0
+    for _ in range(6 if active else 1):
+        trial = _apply_increment(state, asm, delta_full, alpha)
+        evals = _evaluate(model, coords, trial, True)
+        r_full, f_int = _residual(asm, evals, f_ext)
+        rn = float(np.linalg.norm(r_full[asm.free]))
+        if not np.isfinite(rn):
+            rn = np.inf
+        if best is None or rn < best[0]:
+            best = (rn, alpha, trial, evals, r_full, f_int)
+        if rn < r0n:
+            break
+        alpha *= 0.5
+    return best[1:]
+
+
+def _stalled(history: list[float]) -> bool:
+    """True when the residual has not fallen over the last two iterations."""
+    return len(history) >= 4 and history[-1] >= 0.5 * history[-3]
+
+
+class _Fail(Exception):
+    def __init__(self, reason, history, r_full):
+        self.reason, self.history, self.r_full = reason, history, r_full
+
+
+def solve(model, state: State | None = None, factor: float = 1.0, steps: int = 1,
+          options: SolverOptions | None = None,
+          progress: Callable[[float], None] | None = None) -> State:
+    """Find equilibrium of ``model`` under ``factor`` times its loads.
+
+    The external loads and prescribed displacements are moved from those of
+    ``state`` (zero for a fresh solve) to their new values in at least
+    ``steps`` equal increments; an increment that fails is cut in half and
+    later ones grow back (never beyond 1 / ``steps``).
+
+    Returns
+    -------
+    State
+        The equilibrium state with results filled in.
+
+    Raises
+    ------
+    ConvergenceError
+        When an increment smaller than ``options.min_increment`` still fails.
+    ModelError
+        When the model is invalid or a mechanism.
+    """
+    opts = options or SolverOptions()
+    asm = _assembler(model)
+    coords = model.coords
+    if state is None:
+        state = State.initial(model.n_nodes)
+    elif state.translation.shape[0] != model.n_nodes:
+        raise ModelError("the starting state belongs to a model with a different number of nodes")
+    state = state.copy()
+    state.iterations, state.history = [], []
+    f0, f1 = state.applied.copy(), asm.external(factor)
+    p0, p1 = state.prescribed.copy(), asm.prescribed(factor)
+    t, dt, step = 0.0, 1.0 / max(int(steps), 1), 0
+    dt_max = dt
+    fixed = np.flatnonzero(asm.fixed_mask)
+    while t < 1.0 - 1e-12:
+        step += 1
+        dt = min(dt, 1.0 - t)
+        t_new = t + dt
+        trial = state.copy()
+        p_new = p0 + t_new * (p1 - p0)
+        _set_prescribed(trial, fixed, p_new - trial.prescribed)
+        trial.prescribed = p_new
+        f_ext = f0 + t_new * (f1 - f0)
+        try:
+            trial, history, evals = _newton(model, asm, coords, trial, f_ext, opts)
+        except _Fail as fail:
+            if dt <= opts.min_increment:
+                raise ConvergenceError(fail.reason, step, t_new, fail.history,
+                                       _sites(asm, fail.r_full)) from None
+            dt *= 0.5
+            continue
+        trial.applied = f_ext
+        state = trial
+        state.iterations.append(len(history) - 1)
+        state.history.append(history)
+        t = t_new
+        if progress is not None:
+            progress(t)
+        if len(history) <= 6:
+            dt = min(dt * opts.grow, dt_max)
+    _fill_results(model, asm, coords, state)
+    return state
+
+
+def _set_prescribed(state: State, fixed: np.ndarray, jump: np.ndarray) -> None:
+    for k in fixed:
+        j = jump[k]
+        if j == 0.0:
+            continue
+        node, dof = divmod(int(k), 6)
+        if dof < 3:
+            state.translation[node, dof] += j
+        else:
+            spin = np.zeros(3)
+            spin[dof - 3] = j
+            state.rotation[node] = expmap(spin) @ state.rotation[node]
+
+
+def _fill_results(model, asm, coords, state: State) -> None:
+    evals = _evaluate(model, coords, state, False)
+    f_int = asm.internal(evals)
+    r_full = state.applied - f_int
+    reactions = np.zeros(asm.n_full)
+    reactions[asm.fixed_mask] = -r_full[asm.fixed_mask]
+    x = coords + state.translation
+    disp = np.zeros((model.n_nodes, 6))
+    disp[:, :3] = state.translation
+    groups = {}
+    for g, gd in zip(model.groups, asm.group_dofs):
+        res = g.results(x, state.rotation, disp)
+        groups[g.name] = res
+        if g.kind == "spring":
+            reactions -= np.bincount(gd.ravel(), weights=res["force"], minlength=asm.n_full)
+    resid = np.zeros(asm.n_full)
+    resid[asm.free] = r_full[asm.free]
+    state._results = {"reactions": reactions.reshape(-1, 6), "residual": resid.reshape(-1, 6),
+                      "groups": groups}

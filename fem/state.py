@@ -1,0 +1,75 @@
+"""Solution state: displacements, rotations, applied loads and results."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from types import SimpleNamespace
+
+import numpy as np
+
+from .rotation import logmap
+
+
+@dataclass
+class State:
+    """Equilibrium state of a model.
+
+    Attributes
+    ----------
+    translation
+        (n, 3) nodal displacements (m).
+    rotation
+        (n, 3, 3) nodal rotation matrices.
+    applied
+        Full-length external load vector in equilibrium (N, N m).
+    prescribed
+        Full-length prescribed displacement values in force.
+    iterations
+        Newton iterations of each accepted increment of the last solve.
+    history
+        Relative residual norms of every iteration of the last solve.
+    """
+
+    translation: np.ndarray
+    rotation: np.ndarray
+    applied: np.ndarray
+    prescribed: np.ndarray
+    iterations: list[int] = field(default_factory=list)
+    history: list[list[float]] = field(default_factory=list)
+    _results: dict = field(default_factory=dict, repr=False)
+
+    @staticmethod
+    def initial(n_nodes: int) -> "State":
+        """The undeformed, unloaded state."""
+        return State(np.zeros((n_nodes, 3)), np.tile(np.eye(3), (n_nodes, 1, 1)),
+                     np.zeros(6 * n_nodes), np.zeros(6 * n_nodes))
+
+    def copy(self) -> "State":
+        return State(self.translation.copy(), self.rotation.copy(), self.applied.copy(),
+                     self.prescribed.copy(), list(self.iterations), [list(h) for h in self.history])
+
+    @property
+    def u(self) -> np.ndarray:
+        """(n, 6) displacements and rotation vectors."""
+        return np.concatenate([self.translation, logmap(self.rotation)], axis=1)
+
+    @property
+    def reactions(self) -> np.ndarray:
+        """(n, 6) forces and moments from the ground: supports plus springs."""
+        return self._results["reactions"]
+
+    @property
+    def residual(self) -> np.ndarray:
+        """(n, 6) unbalanced force at free DOFs (small at equilibrium)."""
+        return self._results["residual"]
+
+    def group(self, name: str) -> SimpleNamespace:
+        """Results of element group ``name`` (e.g. .end_forces, .tension, .force)."""
+        try:
+            return SimpleNamespace(**self._results["groups"][name])
+        except KeyError:
+            known = ", ".join(self._results.get("groups", {}))
+            raise KeyError(f"no results for group '{name}' (have: {known})") from None
+
+    def positions(self, coords: np.ndarray) -> np.ndarray:
+        """(n, 3) deformed coordinates."""
+        return coords + self.translation
