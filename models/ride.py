@@ -55,8 +55,9 @@ class RideResult:
     Attributes
     ----------
     distance, path, elevation
-        Horizontal distance along the line, arclength along the path from the
-        start, and elevation of every profile point, m.
+        Horizontal distance along the line (counted from the first point when
+        the input was given as path distance), arclength along the path from
+        the start, and elevation of every profile point, m.
     speed
         Speed at every profile point, m/s; NaN at points the rider never reaches.
     time
