@@ -12,3 +12,6 @@ from .state import State
 
 __all__ = ["BeamSection", "ConvergenceError", "FemError", "LinearLaw", "Model", "ModelError",
            "SolverOptions", "State", "solve"]
+from .vtk import write_pvd, write_vtu  # noqa: E402
+
+__all__ += ["write_pvd", "write_vtu"]
