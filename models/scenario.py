@@ -196,4 +196,4 @@ def _straight_profile(ground: GroundSpec, line_name: str, lines: tuple[LineSpec,
     start, end = anchors[line.start], anchors[line.end]
     span = plan_span(start, end)
     return GroundSpec(profile=((0.0, start.grade), (span, end.grade)), soil=ground.soil,
-                      preset=ground.preset, water_table=ground.water_table)
+                      water_table=ground.water_table)

@@ -4,13 +4,14 @@ from __future__ import annotations
 import math
 from typing import Any
 
+from models import lumber
 from models.errors import InputError
 from models.rope import read_rope
 from models.scenario_post import (FOOTING_KEYS, POST_KEYS, read_footing, read_post,
                                   read_section)
-from models.scenario_reader import Table
+from models.scenario_reader import REQUIRED, Table
 from models.spec import (DEFAULT_TERMINATION_EFFICIENCY, AnchorSpec, BraceSpec, GuySpec,
-                         TreeSpec)
+                         PostSpec, SectionSpec, TreeSpec)
 
 ANCHOR_KINDS = ("post", "tree")
 ANCHOR_KEYS = ("name", "kind", "position", "grade", "post", "footing", "guy", "brace", "tree")
@@ -23,8 +24,8 @@ BRACE_KEYS = ("kind", "direction", "attach_height", "foot_distance", "member", "
               "distance", "rail_height", "rail", "diagonal_rope", "diagonal_pretension")
 TREE_KEYS = ("diameter_at_grade", "diameter_at_attachment", "attachment_height", "E_green",
              "root_plate_stiffness", "root_plate_capacity", "species")
-_KICKER_ONLY = ("attach_height", "foot_distance", "member", "species", "grade",
-                "block_width", "block_length")
+_KICKER_ONLY = ("attach_height", "foot_distance", "member", "block_width",
+                "block_length")
 _H_ONLY = ("second_post", "second_footing", "distance", "rail_height", "rail",
            "diagonal_rope", "diagonal_pretension")
 
@@ -78,8 +79,24 @@ def read_guy(table: Table, x: float, y: float, grade: float) -> GuySpec:
                                             positive=True, maximum=1.0))
 
 
-def read_brace(table: Table) -> BraceSpec:
-    """An ``anchor.brace`` table: a kicker or an H-brace."""
+def _wood(table: Table, post: PostSpec, section: SectionSpec) -> tuple[str, str]:
+    """Species and grade of a brace member (default: the post's), checked in the
+    lumber catalog for that section."""
+    species = table.text("species", post.species)
+    grade = table.text("grade", post.grade or "No. 2")
+    where = table.where("species" if table.has("species") else "grade")
+    size = (lumber.parse_size(section.nominal, where) if section.nominal
+            else lumber.custom_size(section.width, section.depth))
+    values = lumber.design_values(species, grade, size, where)
+    return values.species, values.grade
+
+
+def read_brace(table: Table, post: PostSpec) -> BraceSpec:
+    """An ``anchor.brace`` table: a kicker or an H-brace on ``post``.
+
+    The member (kicker) or rail (H-brace) takes ``species`` and ``grade``,
+    by default those of the post.
+    """
     kind = table.text("kind", choices=BRACE_KINDS)
     table.forbid(_H_ONLY if kind == "kicker" else _KICKER_ONLY, f"to a {kind} brace")
     direction = _direction(table, "direction")
@@ -88,42 +105,52 @@ def read_brace(table: Table) -> BraceSpec:
             missing = "block_length" if table.has("block_width") else "block_width"
             raise InputError(f'give "{missing}" too (the bearing block needs both sizes)',
                              table.where(missing))
+        member = read_section(table.raw("member", expected='a nominal size like "4x4"'),
+                              table.where("member"))
+        species, grade = _wood(table, post, member)
         return BraceSpec(
             kind=kind, direction_deg=direction,
             attach_height=table.quantity("attach_height", "length", positive=True),
             foot_distance=table.quantity("foot_distance", "length", positive=True),
-            member=read_section(table.raw("member", expected='a nominal size like "4x4"'),
-                                table.where("member")),
-            species=table.text("species", None), grade=table.text("grade", None),
+            member=member, species=species, grade=grade,
             block_width=table.quantity("block_width", "length", None, positive=True),
             block_length=table.quantity("block_length", "length", None, positive=True))
-    post = read_post(table.table("second_post", POST_KEYS, required=True))
+    second = read_post(table.table("second_post", POST_KEYS, required=True))
     footing_table = table.table("second_footing", FOOTING_KEYS)
+    rail = read_section(table.raw("rail", expected='a nominal size like "4x4"'),
+                        table.where("rail"))
+    species, grade = _wood(table, post, rail)
     return BraceSpec(
-        kind=kind, direction_deg=direction, second_post=post,
+        kind=kind, direction_deg=direction, second_post=second,
         second_footing=read_footing(footing_table) if footing_table else None,
         distance=table.quantity("distance", "length", positive=True),
         rail_height=table.quantity("rail_height", "length", positive=True),
-        rail=read_section(table.raw("rail", expected='a nominal size like "4x4"'),
-                          table.where("rail")),
+        rail=rail, species=species, grade=grade,
         diagonal_rope=read_rope(table.raw("diagonal_rope", expected="a rope name"),
                                 table.where("diagonal_rope")),
         diagonal_pretension=table.quantity("diagonal_pretension", "force", minimum=0.0))
 
 
 def read_tree(table: Table) -> TreeSpec:
-    """An ``anchor.tree`` table."""
+    """An ``anchor.tree`` table. ``E_green`` defaults to the green modulus of
+    ``species`` in the lumber catalog's tree list."""
+    species = table.text("species", None)
+    if species is not None:
+        green = lumber.green_wood(species, table.where("species"))
+        species, modulus = green.species, green.E
+    else:
+        modulus = REQUIRED
     return TreeSpec(
         diameter_at_grade=table.quantity("diameter_at_grade", "length", positive=True),
         diameter_at_attachment=table.quantity("diameter_at_attachment", "length",
                                               positive=True),
         attachment_height=table.quantity("attachment_height", "length", positive=True),
-        E_green=table.quantity("E_green", "pressure", positive=True),
+        E_green=table.quantity("E_green", "pressure", modulus, positive=True),
         root_plate_stiffness=table.quantity("root_plate_stiffness", "rotational stiffness",
                                             positive=True),
         root_plate_capacity=table.quantity("root_plate_capacity", "moment", None,
                                            positive=True),
-        species=table.text("species", None))
+        species=species)
 
 
 def read_anchor(index: int, data: Any) -> AnchorSpec:
@@ -146,6 +173,6 @@ def read_anchor(index: int, data: Any) -> AnchorSpec:
     guys = tuple(read_guy(Table(g, f"{table.where('guy')}[{i + 1}]", GUY_KEYS), x, y, grade)
                  for i, g in enumerate(table.array("guy")))
     brace_table = table.table("brace", BRACE_KEYS)
-    brace = read_brace(brace_table) if brace_table else None
+    brace = read_brace(brace_table, post) if brace_table else None
     return AnchorSpec(name=name, kind=kind, x=x, y=y, grade=grade, post=post,
                       footing=footing, guys=guys, brace=brace, tree=None)

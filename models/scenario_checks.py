@@ -93,16 +93,14 @@ def _check_footing(path: str, footing: FootingSpec, post: PostSpec,
                              path + ".pier_diameter")
     layers = _soil_for(footing, scenario)
     if not layers:
-        if scenario.ground.preset is None:
-            raise InputError(f"an {footing.kind} footing needs soil: add [[ground.soil]] "
-                             "layers, a ground preset, or a footing.soil table", path)
-        return
+        raise InputError(f"an {footing.kind} footing needs soil: add [[ground.soil]] "
+                         "layers (a preset may fill their values) or footing.soil layers",
+                         path)
     deepest = layers[-1].bottom
     if footing.depth > deepest:
         raise InputError(f"the footing ({_m(footing.depth)} deep) goes deeper than the "
                          f"soil described (to {_m(deepest)}); describe the soil down to "
-                         "the footing base or leave the last layer's bottom out",
-                         path + ".depth")
+                         "at least the footing base", path + ".depth")
 
 
 def _check_anchor(path: str, anchor: AnchorSpec, scenario: Scenario) -> None:

@@ -3,15 +3,16 @@ from __future__ import annotations
 
 import math
 import re
+from dataclasses import replace
 from typing import Any
 
+from models import fasteners, lumber
 from models.errors import InputError
 from models.scenario_ground import read_layers
 from models.scenario_reader import Table
 from models.spec import FastenerSpec, FootingSpec, MaterialOverrides, PostSpec, SectionSpec
 from models.units import parse_quantity
 
-INCH = 0.0254
 POST_KINDS = ("sawn", "round", "laminated")
 STACKS = ("across", "side-by-side")
 FASTENER_KINDS = ("nail", "screw", "bolt")
@@ -24,58 +25,65 @@ OVERRIDE_KEYS = {"E": "pressure", "G": "pressure", "Emin": "pressure", "Fb": "pr
 POST_KEYS = ("kind", "height", "species", "grade", "nominal", "width", "depth", "diameter",
              "top_diameter", "base_diameter", "plies", "ply", "stack", "fastener",
              *OVERRIDE_KEYS)
-FASTENER_KEYS = ("kind", "diameter", "length", "spacing", "rows", "staggered",
-                 "slip_modulus")
+FASTENER_KEYS = ("kind", "size", "diameter", "length", "spacing", "rows", "staggered",
+                 "predrilled", "slip_modulus")
 FOOTING_KEYS = ("kind", "depth", "pier_diameter", "backfill", "base_spring", "soil",
                 "slab_at_grade", "double_lateral_bearing")
-_NOMINAL_RE = re.compile(r"^\s*(\d+)\s*[xX×]\s*(\d+)\s*$")
-_NOMINALS = (1, 2, 3, 4, 5, 6, 8, 10, 12, 14, 16)
-
-
-def dressed_size(thickness: int, width: int) -> tuple[float, float]:
-    """Dry dressed size in inches of nominal lumber (thickness <= width).
-
-    American Softwood Lumber Standard PS 20: boards (1 in) dress to 3/4 in;
-    dimension lumber (2-4 in thick) loses 1/2 in up to 6 in and 3/4 in from
-    8 in; timbers (5 in and thicker) lose 1/2 in each way.
-    """
-    if thickness >= 5:
-        return thickness - 0.5, width - 0.5
-    t = 0.75 if thickness == 1 else thickness - 0.5
-    w = (0.75 if width == 1 else width - 0.5) if width <= 6 else width - 0.75
-    return t, w
 
 
 def read_nominal(value: Any, where: str) -> tuple[float, float]:
-    """Dressed size in metres of a nominal ``"AxB"``, in the order written."""
-    m = _NOMINAL_RE.match(value) if isinstance(value, str) else None
-    if not m or int(m.group(1)) not in _NOMINALS or int(m.group(2)) not in _NOMINALS:
-        raise InputError(f'expected a nominal lumber size like "2x6" or "6x6" (inches, '
-                         f"from {', '.join(map(str, _NOMINALS))}), got {value!r}", where)
-    a, b = int(m.group(1)), int(m.group(2))
-    small, large = dressed_size(min(a, b), max(a, b))
-    return (small, large) if a <= b else (large, small)
+    """Dressed size in metres of a nominal ``"AxB"`` (PS 20, via the lumber
+    catalog), in the order written."""
+    if not isinstance(value, str):
+        raise InputError(f'expected a nominal lumber size like "2x6", got {value!r}', where)
+    size = lumber.parse_size(value, where)
+    first, second = (int(n) for n in re.split(r"\s*[xX×]\s*", value.strip()))
+    small, large = size.thickness, size.width
+    return (small, large) if first <= second else (large, small)
 
 
 def read_section(value: Any, where: str) -> SectionSpec:
     """A member section: nominal ``"4x4"`` (width x depth) or ``{width, depth}``."""
     if isinstance(value, str):
         width, depth = read_nominal(value, where)
-        return SectionSpec(value.strip(), width * INCH, depth * INCH)
+        return SectionSpec(value.strip(), width, depth)
     table = Table(value, where, ("width", "depth"))
     return SectionSpec(None, table.quantity("width", "length", positive=True),
                        table.quantity("depth", "length", positive=True))
 
 
 def read_fastener(table: Table) -> FastenerSpec:
-    """The fasteners joining laminated plies."""
+    """The fasteners joining laminated plies.
+
+    A nail may be named by ``size`` ("16d", "10d box") for its diameter and
+    length; a screw by gauge (``size = "#10"``) with a ``length``; otherwise
+    give ``diameter`` and ``length``.
+    """
+    kind = table.text("kind", choices=FASTENER_KINDS)
+    predrilled = table.flag("predrilled", False)
+    size = table.text("size", None)
+    if size is not None:
+        if kind == "bolt":
+            raise InputError('a bolt has no "size"; give diameter and length',
+                             table.where("size"))
+        length = table.quantity("length", "length", None, positive=True)
+        if kind == "nail":
+            table.forbid(("diameter", "length"), 'with a nail "size" (the size sets them)')
+        else:
+            table.forbid(("diameter",), 'with a screw "size" (the gauge sets it)')
+            if length is None:
+                table.quantity("length", "length")  # raises the missing-key error
+        made = fasteners.fastener(kind, size, length, predrilled, table.where("size"))
+        diameter, length, name = made.diameter, made.length, made.name
+    else:
+        diameter = table.quantity("diameter", "length", positive=True)
+        length = table.quantity("length", "length", positive=True)
+        name = None
     return FastenerSpec(
-        kind=table.text("kind", choices=FASTENER_KINDS),
-        diameter=table.quantity("diameter", "length", positive=True),
-        length=table.quantity("length", "length", positive=True),
+        kind=kind, size=name, diameter=diameter, length=length,
         spacing=table.quantity("spacing", "length", positive=True),
         rows=table.integer("rows", 1, minimum=1, maximum=20),
-        staggered=table.flag("staggered", False),
+        staggered=table.flag("staggered", False), predrilled=predrilled or kind != "nail",
         slip_modulus=table.quantity("slip_modulus", "force per length", None, positive=True))
 
 
@@ -83,7 +91,7 @@ def _read_ply(value: Any, where: str) -> SectionSpec:
     """A ply: nominal ``"2x6"`` or ``{thickness, width}``; depth is the thickness."""
     if isinstance(value, str):
         a, b = read_nominal(value, where)
-        return SectionSpec(value.strip(), max(a, b) * INCH, min(a, b) * INCH)
+        return SectionSpec(value.strip(), max(a, b), min(a, b))
     table = Table(value, where, ("thickness", "width"))
     return SectionSpec(None, table.quantity("width", "length", positive=True),
                        table.quantity("thickness", "length", positive=True))
@@ -102,8 +110,36 @@ def _read_stack(table: Table) -> tuple[str, float]:
     return "angle", math.degrees(angle)
 
 
+def _check_wood(table: Table, post: PostSpec) -> PostSpec:
+    """Look up species and grade in the lumber catalog (names normalised there)."""
+    species = table.text("species")
+    where = table.where("species")
+    if post.kind == "round":
+        table.forbid(("grade",), "to a round post (pole values depend on species only)")
+        values = lumber.pole_values(species, where)
+        return replace(post, species=values.species)
+    grade = table.text("grade")
+    section = post.section if post.kind == "sawn" else post.ply
+    assert section is not None
+    size = (lumber.parse_size(section.nominal, where) if section.nominal
+            else lumber.custom_size(section.width, section.depth))
+    values = lumber.design_values(species, grade, size, where)
+    if post.fastener is not None:
+        assert post.ply is not None
+        f = post.fastener
+        probe = fasteners.Fastener(f.kind, f.size or f"{f.kind}", f.diameter, f.length,
+                                   f.predrilled, Fyb=0.0, source="")
+        density = post.overrides.density or values.rho_mean
+        fasteners.check_fits(probe, post.ply.depth, density, table.where("fastener"))
+    return replace(post, species=values.species, grade=values.grade)
+
+
 def read_post(table: Table) -> PostSpec:
-    """A post table (``anchor.post`` or ``anchor.brace.second_post``)."""
+    """A post table (``anchor.post`` or ``anchor.brace.second_post``).
+
+    Species and grade are checked against the lumber catalog and stored under
+    their catalog names.
+    """
     kind = table.text("kind", "sawn", POST_KINDS)
     shape_keys = {"sawn": ("nominal", "width", "depth"),
                   "round": ("diameter", "top_diameter", "base_diameter"),
@@ -112,11 +148,10 @@ def read_post(table: Table) -> PostSpec:
         if other != kind:
             table.forbid(keys, f"to a {kind} post")
     overrides = MaterialOverrides(**{
-        key: table.quantity(key, dim, None, positive=True)
+        "shear_modulus" if key == "G" else key: table.quantity(key, dim, None, positive=True)
         for key, dim in OVERRIDE_KEYS.items()})
     common = dict(kind=kind, height=table.quantity("height", "length", positive=True),
-                  species=table.text("species", None), grade=table.text("grade", None),
-                  overrides=overrides)
+                  species=None, grade=None, overrides=overrides)
     if kind == "sawn":
         if table.one_of(("nominal", "width"), required=True) == "nominal":
             table.forbid(("depth",), 'with "nominal" (give width and depth instead)')
@@ -124,8 +159,8 @@ def read_post(table: Table) -> PostSpec:
         else:
             section = SectionSpec(None, table.quantity("width", "length", positive=True),
                                   table.quantity("depth", "length", positive=True))
-        return PostSpec(section=section, **common)
-    if kind == "round":
+        post = PostSpec(section=section, **common)
+    elif kind == "round":
         if table.one_of(("diameter", "top_diameter")) == "diameter":
             table.forbid(("base_diameter",), 'with "diameter" (give top_diameter and '
                          "base_diameter for a tapered post)")
@@ -137,13 +172,16 @@ def read_post(table: Table) -> PostSpec:
                 raise InputError("a tapered post is thicker at the base: base_diameter "
                                  f"{table.raw('base_diameter')!r} is less than top_diameter "
                                  f"{table.raw('top_diameter')!r}", table.where("base_diameter"))
-        return PostSpec(top_diameter=top, base_diameter=base, **common)
-    plies = table.integer("plies", minimum=2, maximum=12)
-    ply = _read_ply(table.raw("ply", expected='a nominal size like "2x6"'), table.where("ply"))
-    stack, angle = _read_stack(table)
-    fastener = read_fastener(table.table("fastener", FASTENER_KEYS, required=True))
-    return PostSpec(plies=plies, ply=ply, stack=stack, stack_angle_deg=angle,
-                    fastener=fastener, **common)
+        post = PostSpec(top_diameter=top, base_diameter=base, **common)
+    else:
+        plies = table.integer("plies", minimum=2, maximum=12)
+        ply = _read_ply(table.raw("ply", expected='a nominal size like "2x6"'),
+                        table.where("ply"))
+        stack, angle = _read_stack(table)
+        fastener = read_fastener(table.table("fastener", FASTENER_KEYS, required=True))
+        post = PostSpec(plies=plies, ply=ply, stack=stack, stack_angle_deg=angle,
+                        fastener=fastener, **common)
+    return _check_wood(table, post)
 
 
 def read_footing(table: Table) -> FootingSpec:

@@ -28,10 +28,14 @@ class RopeSpec:
 
 @dataclass(frozen=True)
 class MaterialOverrides:
-    """User values replacing the species/grade catalog (None: use the catalog)."""
+    """User values replacing the species/grade catalog (None: use the catalog).
+
+    The scenario key for ``shear_modulus`` is ``G`` (a stress, e.g. "100000 psi");
+    it is not the NDS specific gravity.
+    """
 
     E: float | None = None        # Pa, modulus of elasticity
-    G: float | None = None        # Pa, shear modulus
+    shear_modulus: float | None = None  # Pa (scenario key "G")
     Emin: float | None = None     # Pa, stability modulus
     Fb: float | None = None       # Pa, bending
     Ft: float | None = None       # Pa, tension parallel to grain
@@ -55,11 +59,13 @@ class FastenerSpec:
     """Fasteners joining the plies of a laminated post."""
 
     kind: str                   # "nail" | "screw" | "bolt"
+    size: str | None            # catalog name, e.g. "16d common nail"; None if by dimensions
     diameter: float             # m
     length: float               # m
     spacing: float              # m, along the post, within one row
     rows: int                   # rows across the ply face
     staggered: bool             # rows offset by half a spacing
+    predrilled: bool            # always True for screws and bolts
     slip_modulus: float | None  # N/m per fastener per shear plane; None: from the fastener
 
 
@@ -117,7 +123,7 @@ class SoilLayerSpec:
     """
 
     top: float                                # m below grade
-    bottom: float                             # m below grade (inf: no limit)
+    bottom: float                             # m below grade
     kind: str                                 # "sand" | "clay" | "modulus"
     unit_weight: float | None = None          # N/m^3 (total)
     friction_angle_deg: float | None = None
@@ -126,7 +132,8 @@ class SoilLayerSpec:
     eps50: float | None = None
     modulus_constant: float | None = None     # Pa
     modulus_gradient: float | None = None     # N/m^3
-    ibc_class: str | None = None
+    ibc_class: str | None = None              # key of models.ibc_embedment
+    preset: str | None = None                 # models.soil preset the values came from
 
 
 @dataclass(frozen=True)
@@ -136,7 +143,6 @@ class GroundSpec:
     profile: tuple[tuple[float, float], ...]  # (horizontal distance along the rider's
                                               # line from its start anchor, elevation), m
     soil: tuple[SoilLayerSpec, ...]           # layers from grade down, in order
-    preset: str | None = None                 # soil preset name (catalog elsewhere)
     water_table: float | None = None          # m below grade
 
 
