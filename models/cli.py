@@ -20,3 +20,38 @@ def main() -> None:
     qualified engineer review every design and follow local codes and the
     applicable standards.
     """
+
+
+@main.command("init")
+@click.argument("file", type=click.Path(dir_okay=False))
+@click.option("--layout", default="two-posts", show_default=True, metavar="NAME",
+              help="Starter layout: two-posts, guyed, braced, h-brace or tree.")
+@click.option("--force", is_flag=True, help="Overwrite FILE if it exists.")
+def init(file: str, layout: str, force: bool) -> None:
+    """Write a commented starter scenario to FILE."""
+    from models.errors import InputError
+    from models.starter import write_starter
+
+    try:
+        path = write_starter(file, layout, force)
+    except InputError as exc:
+        _fail(exc)
+    click.echo(f"wrote {path} (layout {layout}); edit it, then run: spanstay validate {path}")
+
+
+@main.command("validate")
+@click.argument("file", type=click.Path(dir_okay=False))
+@click.option("--units", type=click.Choice(["us", "si"]), default=None,
+              help="Units for the summary (default: the scenario's settings.units).")
+def validate(file: str, units: str | None) -> None:
+    """Read and check scenario FILE without solving; print what was read."""
+    from models.errors import InputError
+    from models.scenario import load_scenario
+    from models.scenario_summary import summary_text
+
+    try:
+        scenario = load_scenario(file)
+    except InputError as exc:
+        _fail(exc)
+    click.echo(summary_text(scenario, units or scenario.settings.units))
+    click.echo("valid")

@@ -277,11 +277,12 @@ def format_number(x: float, digits: int = 3) -> str:
     if x == 0 or not math.isfinite(x):
         return f"{x:g}"
     exponent = math.floor(math.log10(abs(x)))
+    if abs(round(x, digits - 1 - exponent)) >= 10.0 ** (exponent + 1):
+        exponent += 1  # 9.9996 rounds up to 10.0
     if exponent >= 9 or exponent < -4:
         return f"{x:.{digits - 1}e}"
-    decimals = max(digits - 1 - exponent, 0)
-    rounded = round(x, decimals)
-    return f"{rounded:,.{decimals}f}"
+    places = digits - 1 - exponent
+    return f"{round(x, places):,.{max(places, 0)}f}"
 
 
 def show(value: float, kind: str, system: str, digits: int = 3) -> str:
