@@ -127,6 +127,7 @@ class BeamGroup(ElementGroup):
         if np.any(short):
             i = int(np.argmax(short))
             raise ModelError(f"{what} element {i}: zero length (nodes {conn[i, 0]} and {conn[i, 1]} coincide)")
+        self.chord0 = chord
         e1 = chord / self.L0[:, None]
         ov = as_array("orientation", orientation, (ne, 3), what + ": ")
         e3 = np.cross(e1, ov)
@@ -146,10 +147,18 @@ class BeamGroup(ElementGroup):
 
     # -- kinematics ---------------------------------------------------
     @staticmethod
-    def _core(x1, x2, r1, r2, frame0, L0, k_local):
-        """Forces (n, 12) and local section quantities for a batch of elements."""
-        d = x2 - x1
+    def _core(u1, u2, r1, r2, frame0, L0, k_local, chord0):
+        """Forces (n, 12) and local section quantities for a batch of elements.
+
+        ``u1``, ``u2`` are the end displacements; the chord is the initial
+        chord plus their difference and the elongation is formed without
+        subtracting two nearly equal lengths, so stiff members keep a residual
+        near round-off of the load rather than of the coordinates.
+        """
+        du = u2 - u1
+        d = chord0 + du
         ln = np.linalg.norm(d, axis=1)
+        elong = (2.0 * np.einsum("ni,ni->n", chord0, du) + np.einsum("ni,ni->n", du, du)) / (ln + L0)
         e1 = d / ln[:, None]
         t1 = r1 @ frame0
         t2 = r2 @ frame0
@@ -162,20 +171,20 @@ class BeamGroup(ElementGroup):
         rrt = np.transpose(rr, (0, 2, 1))
         th1 = logmap(rrt @ t1)
         th2 = logmap(rrt @ t2)
-        dl = np.zeros((x1.shape[0], 12))
-        dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, ln - L0, th2
+        dl = np.zeros((u1.shape[0], 12))
+        dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, elong, th2
         fl = np.einsum("nij,nj->ni", k_local, dl)
         n_ax, m1, m2 = fl[:, 6], fl[:, 3:6], fl[:, 9:12]
         # spin of the rigid frame, local components, as rows over the 12 DOFs
         ql1 = np.einsum("ni,ni->n", q, e1)
         ql2 = np.einsum("ni,ni->n", q, e2)
-        wr = np.zeros((x1.shape[0], 3, 12))
+        wr = np.zeros((u1.shape[0], 3, 12))
         wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2 / ln[:, None], e2 / ln[:, None]
         wr[:, 1, 0:3], wr[:, 1, 6:9] = e3 / ln[:, None], -e3 / ln[:, None]
         wr[:, 0, :] = (ql1 / ql2)[:, None] * wr[:, 1, :]
         wr[:, 0, 3:6] += np.cross(q1, e3) / (2.0 * ql2[:, None])
         wr[:, 0, 9:12] += np.cross(q2, e3) / (2.0 * ql2[:, None])
-        f = np.zeros((x1.shape[0], 12))
+        f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
         for th, m, cols in ((th1, m1, slice(3, 6)), (th2, m2, slice(9, 12))):
             v = -wr.copy()
@@ -184,24 +193,25 @@ class BeamGroup(ElementGroup):
             f += np.einsum("nij,ni->nj", b, m)
         return f, fl, dl
 
-    def _state(self, x, rot):
+    def _state(self, disp, rot):
         c = self.conn
-        return x[c[:, 0]], x[c[:, 1]], rot[c[:, 0]], rot[c[:, 1]]
+        return disp[c[:, 0], :3], disp[c[:, 1], :3], rot[c[:, 0]], rot[c[:, 1]]
 
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
-        x1, x2, r1, r2 = self._state(x, rot)
-        f, _, _ = self._core(x1, x2, r1, r2, self.frame0, self.L0, self.k_local)
+        u1, u2, r1, r2 = self._state(disp, rot)
+        f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
         if not tangent:
             return Evaluation(f, None)
         reps = 24
         frame0 = np.tile(self.frame0, (reps, 1, 1))
         l0 = np.tile(self.L0, reps)
         kl = np.tile(self.k_local, (reps, 1, 1))
+        c0 = np.tile(self.chord0, (reps, 1))
 
         def force_fn(a1, a2, b1, b2):
-            return self._core(a1, a2, b1, b2, frame0, l0, kl)[0]
+            return self._core(a1, a2, b1, b2, frame0, l0, kl, c0)[0]
 
-        k = central_difference_tangent(force_fn, x1, x2, r1, r2,
+        k = central_difference_tangent(force_fn, u1, u2, r1, r2,
                                        steps_t=1e-7 * self.L0, steps_r=np.full(self.size, 1e-7))
         return Evaluation(f, k)
 
@@ -215,8 +225,8 @@ class BeamGroup(ElementGroup):
         return ext
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
-        x1, x2, r1, r2 = self._state(x, rot)
-        _, fl, _ = self._core(x1, x2, r1, r2, self.frame0, self.L0, self.k_local)
+        u1, u2, r1, r2 = self._state(disp, rot)
+        _, fl, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
         # section forces, N positive in tension: end 1 = -f_local[0:6], end 2 = +f_local[6:12]
         ends = np.stack([-fl[:, 0:6], fl[:, 6:12]], axis=1)
         return {"end_forces": ends}

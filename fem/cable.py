@@ -41,7 +41,8 @@ class CableGroup(ElementGroup):
         positive("weight", self.weight, what, allow_zero=True)
         self.alpha = as_array("alpha", alpha, (ne,), what + ": ")
         self.dT = as_array("dT", dT, (ne,), what + ": ")
-        chord = np.linalg.norm(coords[conn[:, 1]] - coords[conn[:, 0]], axis=1)
+        self.chord0 = coords[conn[:, 1]] - coords[conn[:, 0]]
+        chord = np.linalg.norm(self.chord0, axis=1)
         short = chord <= 1e-12 * max(1.0, float(np.max(np.abs(coords))))
         if np.any(short):
             i = int(np.argmax(short))
@@ -59,6 +60,13 @@ class CableGroup(ElementGroup):
         length = np.linalg.norm(d, axis=1)
         return d / length[:, None], length
 
+    def _geometry_disp(self, disp):
+        """Unit chord and length from the initial chord plus the relative displacement
+        (no loss of digits to large coordinates)."""
+        d = self.chord0 + (disp[self.conn[:, 1], :3] - disp[self.conn[:, 0], :3])
+        length = np.linalg.norm(d, axis=1)
+        return d / length[:, None], length
+
     def tension(self, x) -> np.ndarray:
         """Tension of every segment (zero when slack)."""
         _, length = self._geometry(x)
@@ -66,7 +74,7 @@ class CableGroup(ElementGroup):
         return np.maximum(self.EA * (length - lf) / lf, 0.0)
 
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
-        e, length = self._geometry(x)
+        e, length = self._geometry_disp(disp)
         lf = self.free_length()
         t = np.maximum(self.EA * (length - lf) / lf, 0.0)
         f = np.concatenate([-t[:, None] * e, t[:, None] * e], axis=1)
@@ -90,6 +98,7 @@ class CableGroup(ElementGroup):
         return np.concatenate([g, g], axis=1)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
-        _, length = self._geometry(x)
-        return {"tension": self.tension(x), "length": length,
-                "slack": self.tension(x) <= 0.0}
+        _, length = self._geometry_disp(disp)
+        lf = self.free_length()
+        tension = np.maximum(self.EA * (length - lf) / lf, 0.0)
+        return {"tension": tension, "length": length, "slack": tension <= 0.0}
