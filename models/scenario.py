@@ -15,7 +15,7 @@ from typing import Any
 from models.errors import InputError
 from models.rope import read_rope
 from models.scenario_anchor import read_anchor
-from models.scenario_checks import check_scenario, plan_span
+from models.scenario_checks import check_anchor_names, check_scenario, plan_span
 from models.scenario_ground import read_ground
 from models.scenario_reader import Table, did_you_mean
 from models.spec import (DEFAULT_AIR_DENSITY, DEFAULT_DRAG_AREA, DEFAULT_DYNAMIC_FACTOR,
@@ -79,6 +79,7 @@ def read_scenario(data: dict[str, Any], default_name: str = "scenario") -> Scena
     if len(anchor_items) < 2:
         raise InputError("a scenario needs at least two [[anchor]] tables", "anchor")
     anchors = tuple(read_anchor(i, a) for i, a in enumerate(anchor_items))
+    check_anchor_names(anchors)
     by_name = {a.name: a for a in anchors}
     line_items = top.array("line", required=True)
     if not line_items:

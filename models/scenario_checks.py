@@ -49,14 +49,19 @@ def check_scenario(scenario: Scenario) -> None:
     _check_rider(scenario)
 
 
-def _check_names(scenario: Scenario) -> None:
+def check_anchor_names(anchors: tuple[AnchorSpec, ...]) -> None:
+    """Raise InputError if two anchors share a name."""
     seen: dict[str, int] = {}
-    for i, anchor in enumerate(scenario.anchors):
+    for i, anchor in enumerate(anchors):
         if anchor.name in seen:
             raise InputError(f'another anchor (anchor[{seen[anchor.name] + 1}]) is also '
                              f'called "{anchor.name}"; names must differ',
                              _anchor_path(i, anchor) + ".name")
         seen[anchor.name] = i
+
+
+def _check_names(scenario: Scenario) -> None:
+    check_anchor_names(scenario.anchors)
     lines: dict[str, int] = {}
     for i, line in enumerate(scenario.lines):
         if line.name in lines:

@@ -114,7 +114,10 @@ _OTHER_WORDS = {"kg": "a mass (write lbf rather than lb for a force)",
 
 def _describe(quantity: Any) -> str:
     """Name the dimension of a parsed quantity in words, for error messages."""
-    words = {dim.si_unit: dim.words for dim in DIMENSIONS.values() if dim.si_unit != "rad"}
+    words: dict[str, str] = {}
+    for dim in DIMENSIONS.values():  # the first (plainest) name of each dimension
+        if dim.si_unit != "rad":
+            words.setdefault(dim.si_unit, dim.words)
     for unit, text in {**words, **_OTHER_WORDS}.items():
         if quantity.check(registry().get_dimensionality(unit)):
             return text
@@ -156,34 +159,55 @@ def parse_quantity(text: Any, expected_dimension: str, where: str | None = None)
     if not isinstance(text, str):
         raise InputError(f"the number {text!r} has no units; {dim.words} needs units, "
                          f"e.g. {example}", where)
+    result = _convert(text, expected_dimension)
+    if isinstance(result, str):
+        raise InputError(result, where)
+    return result
+
+
+class _Bad(Exception):
+    """A message about a quantity string (raised inside :func:`_convert`)."""
+
+
+@lru_cache(maxsize=4096)
+def _convert(text: str, expected_dimension: str) -> float | str:
+    """SI value of ``text``, or the message saying why it cannot be read (cached)."""
+    try:
+        return _convert_uncached(text, expected_dimension)
+    except _Bad as bad:
+        return str(bad)
+
+
+def _convert_uncached(text: str, expected_dimension: str) -> float:
+    dim = DIMENSIONS[expected_dimension]
+    example = f'"{dim.example}"'
     if not text.strip():
-        raise InputError(f"empty value; expected {dim.words}, e.g. {example}", where)
+        raise _Bad(f"empty value; expected {dim.words}, e.g. {example}")
     import pint
 
     try:
         quantity = _pint_parse(text, expected_dimension)
     except pint.UndefinedUnitError as exc:
         names = exc.unit_names if isinstance(exc.unit_names, str) else ", ".join(exc.unit_names)
-        raise InputError(f"unknown unit '{names}' in {text!r}; expected "
-                         f"{dim.words}, e.g. {example}", where) from None
+        raise _Bad(f"unknown unit '{names}' in {text!r}; expected "
+                   f"{dim.words}, e.g. {example}") from None
     except Exception:  # pint's tokenizer raises a variety of errors on garbage
-        raise InputError(f"cannot read {text!r} as a quantity; expected {dim.words}, "
-                         f"e.g. {example}", where) from None
+        raise _Bad(f"cannot read {text!r} as a quantity; expected {dim.words}, "
+                   f"e.g. {example}") from None
     if not hasattr(quantity, "units"):
         quantity = registry().Quantity(quantity)
     if quantity.unitless:
-        raise InputError(f"{text!r} has no units; {dim.words} needs units, e.g. {example}",
-                         where)
+        raise _Bad(f"{text!r} has no units; {dim.words} needs units, e.g. {example}")
     ureg = registry()
     if expected_dimension == "angle":
         if not quantity.dimensionless:
-            raise InputError(f"{text!r} is {_describe(quantity)}; expected {dim.words}, "
-                             f"e.g. {example}", where)
+            raise _Bad(f"{text!r} is {_describe(quantity)}; expected {dim.words}, "
+                             f"e.g. {example}")
         value = float(quantity.to("rad").magnitude)
     elif quantity.check(ureg.get_dimensionality(dim.si_unit)):
         if expected_dimension == "temperature" and "delta_" in str(quantity.units):
-            raise InputError(f"{text!r} is a temperature difference; expected a "
-                             f"temperature, e.g. {example}", where)
+            raise _Bad(f"{text!r} is a temperature difference; expected a "
+                             f"temperature, e.g. {example}")
         value = float(quantity.to(dim.si_unit).magnitude)
     elif dim.mass_unit and quantity.check(ureg.get_dimensionality(dim.mass_unit)):
         value = float(quantity.to(dim.mass_unit).magnitude) * STANDARD_GRAVITY
@@ -191,10 +215,10 @@ def parse_quantity(text: Any, expected_dimension: str, where: str | None = None)
         hint = ""
         if "temperature" in expected_dimension:
             hint = " (write degF or degC for degrees; F and C alone are farad and coulomb)"
-        raise InputError(f"{text!r} is {_describe(quantity)}; expected {dim.words}, "
-                         f"e.g. {example}{hint}", where)
+        raise _Bad(f"{text!r} is {_describe(quantity)}; expected {dim.words}, "
+                   f"e.g. {example}{hint}")
     if not math.isfinite(value):
-        raise InputError(f"{text!r} is not a finite value", where)
+        raise _Bad(f"{text!r} is not a finite value")
     return value
 
 
