@@ -84,7 +84,8 @@ def _wood(table: Table, post: PostSpec, section: SectionSpec) -> tuple[str, str]
     lumber catalog for that section."""
     species = table.text("species", post.species)
     grade = table.text("grade", post.grade or "No. 2")
-    where = table.where("species" if table.has("species") else "grade")
+    key = next((k for k in ("species", "grade") if table.has(k)), None)
+    where = table.where(key) if key else table.path
     size = (lumber.parse_size(section.nominal, where) if section.nominal
             else lumber.custom_size(section.width, section.depth))
     values = lumber.design_values(species, grade, size, where)

@@ -84,8 +84,8 @@ class PostSpec:
 
     kind: str                        # "sawn" | "round" | "laminated"
     height: float                    # m above grade
-    species: str | None
-    grade: str | None
+    species: str | None              # lumber catalog name (models.lumber), checked
+    grade: str | None                # lumber catalog grade; None for round posts
     section: SectionSpec | None = None
     top_diameter: float | None = None
     base_diameter: float | None = None
@@ -195,8 +195,8 @@ class BraceSpec:
     attach_height: float | None = None        # m above grade on the post
     foot_distance: float | None = None        # m, horizontal post -> foot
     member: SectionSpec | None = None
-    species: str | None = None
-    grade: str | None = None
+    species: str | None = None                # of the kicker member or the H-brace
+    grade: str | None = None                  # rail (default: the post's)
     block_width: float | None = None          # m, bearing block at the foot
     block_length: float | None = None         # m
     # h-brace
