@@ -9,6 +9,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
+import numpy as np
+
 from models.errors import InputError
 from models.lumber import INCH, PSI, DesignValues, DressedSize
 
@@ -296,32 +298,35 @@ def column_stability_factor(Fc_star: float, Emin_adj: float, le_over_d: float,
 class Interaction:
     """Combined-stress check: ``value`` <= 1 passes; ``terms`` for the report."""
 
-    value: float
-    terms: dict[str, float]
+    value: float | np.ndarray
+    terms: dict
     clause: str
 
     @property
     def ok(self) -> bool:
-        return self.value <= 1.0
+        return bool(np.all(np.asarray(self.value) <= 1.0))
 
 
-def bending_compression(fc: float, fb1: float, fb2: float, Fc_adj: float, Fb1_adj: float,
-                        Fb2_adj: float, FcE1: float, FcE2: float, FbE: float = math.inf) -> Interaction:
+def bending_compression(fc, fb1, fb2, Fc_adj: float, Fb1_adj: float, Fb2_adj: float,
+                        FcE1: float, FcE2: float, FbE: float = math.inf) -> Interaction:
     """NDS 3.9.2 (Eq. 3.9-3), compression with bending about both axes.
 
     (fc/Fc')^2 + fb1/(Fb1'(1 - fc/FcE1)) + fb2/(Fb2'(1 - fc/FcE2 - (fb1/FbE)^2)) <= 1,
     with axis 1 the edgewise (strong) and 2 the flatwise axis; fc < FcE1,
     fc < FcE2 and fb1 < FbE are required, otherwise the value is infinite.
-    Stresses are magnitudes (Pa). Fc' includes CP.
+    Stresses are magnitudes (Pa), scalars or arrays. Fc' includes CP.
     """
-    fc, fb1, fb2 = abs(fc), abs(fb1), abs(fb2)
+    fc, fb1, fb2 = (np.abs(np.asarray(v, float)) for v in (fc, fb1, fb2))
     t0 = (fc / Fc_adj) ** 2
     d1 = 1.0 - fc / FcE1
     d2 = 1.0 - fc / FcE2 - (fb1 / FbE) ** 2
-    t1 = fb1 / (Fb1_adj * d1) if d1 > 0 else math.inf
-    t2 = fb2 / (Fb2_adj * d2) if d2 > 0 else math.inf
-    return Interaction(t0 + t1 + t2, {"axial": t0, "bending 1": t1, "bending 2": t2},
-                       "NDS 3.9.2")
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t1 = np.where(d1 > 0, fb1 / (Fb1_adj * d1), np.inf)
+        t2 = np.where(d2 > 0, fb2 / (Fb2_adj * d2), np.inf)
+    value = t0 + t1 + t2
+    if value.ndim == 0:
+        value, t0, t1, t2 = float(value), float(t0), float(t1), float(t2)
+    return Interaction(value, {"axial": t0, "bending 1": t1, "bending 2": t2}, "NDS 3.9.2")
 
 
 def bending_tension(ft: float, fb: float, Ft_adj: float, Fb_star: float,
