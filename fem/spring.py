@@ -77,13 +77,19 @@ class SpringGroup(ElementGroup):
     def _active(self, u):
         return (self.side == 0) | (self.side * u > 0)
 
+    def _bearing(self, u):
+        """Where the tangent is taken from the resisting branch: active springs and
+        closed gaps (u = 0). The force is zero at u = 0 either way; taking the stiff
+        branch there lets a structure resting on one-sided springs start from rest."""
+        return (self.side == 0) | (self.side * u >= 0)
+
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
         u = self.displacement(rot, disp)
         active = self._active(u)
         f = np.where(active, self.law.force(u), 0.0)
         if not tangent:
             return Evaluation(f[:, None], None)
-        k = np.where(active, self.law.stiffness(u), 0.0)
+        k = np.where(self._bearing(u), self.law.stiffness(u), 0.0)
         return Evaluation(f[:, None], k[:, None, None])
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
