@@ -50,7 +50,8 @@ class LinkGroup(ElementGroup):
             i = int(np.argmax(ortho))
             raise ModelError(f"{what} element {i}: local axes must be mutually perpendicular")
         self.axes = a
-        self.gap0 = coords[conn[:, 1]] + self.o2 - coords[conn[:, 0]] - self.o1
+        self.chord0 = coords[conn[:, 1]] - coords[conn[:, 0]]
+        self.gap0 = self.chord0 + self.o2 - self.o1
         if np.any(conn[:, 0] == conn[:, 1]):
             i = int(np.argmax(conn[:, 0] == conn[:, 1]))
             raise ModelError(f"{what} element {i}: both ends on node {conn[i, 0]}")
@@ -71,10 +72,12 @@ class LinkGroup(ElementGroup):
         m[:, 9:12] = (rot | (arm2 & trans))[:, None]
         return m
 
-    def _forces(self, x1, x2, r1, r2, axes, o1, o2, gap0, k):
+    def _forces(self, u1, u2, r1, r2, axes, o1, o2, gap0, k, chord0):
+        """Forces for end displacements u1, u2 (the chord is formed from the initial
+        chord plus u2 - u1, so coincident nodes far from the origin keep their digits)."""
         a1 = np.einsum("nij,nj->ni", r1, o1)
         a2 = np.einsum("nij,nj->ni", r2, o2)
-        gap = x2 + a2 - x1 - a1
+        gap = chord0 + (u2 - u1) + a2 - a1
         r1t = np.transpose(r1, (0, 2, 1))
         slip = np.einsum("nij,nj->ni", axes, np.einsum("nij,nj->ni", r1t, gap) - gap0)
         phi = np.einsum("nij,nj->ni", axes, logmap(r1t @ r2))
@@ -83,26 +86,27 @@ class LinkGroup(ElementGroup):
         to_global = r1 @ np.transpose(axes, (0, 2, 1))
         f = np.einsum("nij,nj->ni", to_global, f_loc)
         m = np.einsum("nij,nj->ni", to_global, m_loc)
-        out = np.empty((x1.shape[0], 12))
+        out = np.empty((u1.shape[0], 12))
         out[:, 0:3] = -f
         out[:, 3:6] = -m - np.cross(a1, f) - np.cross(gap, f)
         out[:, 6:9] = f
         out[:, 9:12] = m + np.cross(a2, f)
         return out, slip, phi, f_loc, m_loc
 
-    def _state(self, x, rot):
+    def _state(self, disp, rot):
         c = self.conn
-        return x[c[:, 0]], x[c[:, 1]], rot[c[:, 0]], rot[c[:, 1]]
+        return disp[c[:, 0], :3], disp[c[:, 1], :3], rot[c[:, 0]], rot[c[:, 1]]
 
     def _consts(self, reps=1):
         if reps == 1:
-            return self.axes, self.o1, self.o2, self.gap0, self.k
+            return self.axes, self.o1, self.o2, self.gap0, self.k, self.chord0
         return (np.tile(self.axes, (reps, 1, 1)), np.tile(self.o1, (reps, 1)),
-                np.tile(self.o2, (reps, 1)), np.tile(self.gap0, (reps, 1)), np.tile(self.k, (reps, 1)))
+                np.tile(self.o2, (reps, 1)), np.tile(self.gap0, (reps, 1)), np.tile(self.k, (reps, 1)),
+                np.tile(self.chord0, (reps, 1)))
 
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
-        x1, x2, r1, r2 = self._state(x, rot)
-        f = self._forces(x1, x2, r1, r2, *self._consts())[0]
+        u1, u2, r1, r2 = self._state(disp, rot)
+        f = self._forces(u1, u2, r1, r2, *self._consts())[0]
         if not tangent:
             return Evaluation(f, None)
         consts = self._consts(24)
@@ -110,12 +114,12 @@ class LinkGroup(ElementGroup):
         def force_fn(a, b, c, d):
             return self._forces(a, b, c, d, *consts)[0]
 
-        k = central_difference_tangent(force_fn, x1, x2, r1, r2,
+        k = central_difference_tangent(force_fn, u1, u2, r1, r2,
                                        steps_t=np.full(self.size, 1e-7 * self.length_scale),
                                        steps_r=np.full(self.size, 1e-7))
         return Evaluation(f, k)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
-        x1, x2, r1, r2 = self._state(x, rot)
-        _, slip, phi, f_loc, m_loc = self._forces(x1, x2, r1, r2, *self._consts())
+        u1, u2, r1, r2 = self._state(disp, rot)
+        _, slip, phi, f_loc, m_loc = self._forces(u1, u2, r1, r2, *self._consts())
         return {"slip": slip, "rotation": phi, "force": f_loc, "moment": m_loc}
