@@ -1,13 +1,187 @@
-"""Lateral capacity of footings: Broms (1964) closed forms for short rigid piles.
+"""Lateral capacity of footings: pushover, the service-load analysis, Broms (1964).
+
+- ``pushover(case)``: push the load point sideways by displacement control
+  until the load stops growing (plateau), equilibrium is lost, or the
+  ground-line rotation passes its limit; gives the load-displacement curve and
+  the ultimate lateral load.
+- ``analyse_footing(case)``: the footing under its service load; a load it
+  cannot carry is reported as "capacity exceeded" with the load reached
+  (from the pushover), not raised.
+- Broms (1964) closed forms for short free-head piles, for comparison.
 
 All SI: loads N, lengths m, unit weights N/m^3, strengths Pa. ``e`` is the
 height of the lateral load above grade; ``L`` the embedded length.
 """
 from __future__ import annotations
 
+from dataclasses import dataclass, field
+
 import numpy as np
 
+from fem import SolverOptions, State, solve
+from fem.errors import FemError
+from models.footing import FootingCase, FootingResponse, build_case_model, footing_response
 from models.py_curves import passive_coefficient
+
+CAPACITY_EXCEEDED = "capacity exceeded"
+_QUICK = SolverOptions(max_iterations=12, min_increment=0.03)  # give up early, then push
+ROTATION_LIMIT = 0.1  # rad, ground-line rotation taken as failure of the soil (about 6 deg)
+
+
+@dataclass
+class PushoverResult:
+    """Load-displacement curve of a footing pushed to its limit.
+
+    Attributes
+    ----------
+    displacement
+        Lateral displacement of the load point at each point of the curve, m.
+    load
+        Lateral load at each point, N.
+    ground_displacement, ground_rotation
+        Ground-line displacement (m) and rotation (rad) at each point.
+    ultimate
+        Largest load carried, N (at the rotation limit if that comes first).
+    limit
+        Why the push stopped: "plateau", "rotation limit", "no equilibrium"
+        or "displacement limit".
+    service_load
+        The case's service load, N; ``ratio`` = ultimate / service_load.
+    response
+        Footing response at the ultimate point.
+    states
+        Engine state at each point (``None`` at the unloaded start).
+    """
+
+    displacement: np.ndarray
+    load: np.ndarray
+    ground_displacement: np.ndarray
+    ground_rotation: np.ndarray
+    ultimate: float
+    limit: str
+    service_load: float
+    response: FootingResponse
+    states: list = field(repr=False, default_factory=list)
+
+    @property
+    def state(self) -> State:
+        """Engine state at the highest load reached."""
+        return self.states[int(np.argmax(self.load))]
+
+    @property
+    def ratio(self) -> float:
+        """Ultimate over service load (inf for zero service load)."""
+        return self.ultimate / self.service_load if self.service_load > 0 else float("inf")
+
+
+def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: int = 30,
+             plateau: float = 0.005) -> PushoverResult:
+    """Push a footing's load point in +x by displacement control to its limit.
+
+    Displacements grow geometrically from 1/1000 to all of
+    ``rotation_limit * (e + L)``; a step that finds no equilibrium is halved
+    up to four times. The push stops when the load grows by less than
+    ``plateau`` (relative) over a step while the tangent has dropped below 1 %
+    of the initial one, when the ground-line rotation passes
+    ``rotation_limit`` (the load there is interpolated), or when no
+    equilibrium is found.
+    """
+    m, placed, node = build_case_model(case)
+    u_max = rotation_limit * (case.load_height + case.footing.depth)
+    targets = list(u_max * np.geomspace(1e-3, 1.0, points))
+    state = None
+    us, loads, ug, rg, states = [0.0], [0.0], [0.0], [0.0], [None]
+    limit, halvings = "displacement limit", 0
+    while targets:
+        u = targets[0]
+        m.prescribe(node, "ux", u)
+        try:
+            trial = solve(m, state=state, factor=1.0, steps=1)
+        except FemError:
+            if halvings >= 4:
+                limit = "no equilibrium"
+                break
+            halvings += 1
+            targets.insert(0, 0.5 * (us[-1] + u))
+            continue
+        halvings = 0
+        targets.pop(0)
+        state = trial
+        resp = footing_response(placed, m, state)
+        us.append(u)
+        loads.append(float(state.reactions[node, 0]))
+        ug.append(resp.ground_displacement)
+        rg.append(resp.ground_rotation)
+        states.append(state)
+        if abs(rg[-1]) > rotation_limit:
+            limit = "rotation limit"
+            break
+        k0 = loads[1] / us[1]
+        k = (loads[-1] - loads[-2]) / (us[-1] - us[-2])
+        if len(loads) > 3 and k < 0.01 * k0 and loads[-1] - loads[-2] < plateau * loads[-1]:
+            limit = "plateau"
+            break
+    us, loads, ug, rg = (np.array(v) for v in (us, loads, ug, rg))
+    if limit == "rotation limit":  # interpolate the load where the rotation reaches the limit
+        r0, r1 = abs(rg[-2]), abs(rg[-1])
+        w = (rotation_limit - r0) / (r1 - r0)
+        ultimate = float(loads[-2] + w * (loads[-1] - loads[-2]))
+        ultimate = max(ultimate, float(np.max(loads[:-1])))
+    else:
+        ultimate = float(np.max(loads))
+    best = int(np.argmax(loads))
+    if states[best] is None:
+        raise FemError("pushover: no equilibrium even at the first, smallest displacement")
+    return PushoverResult(us, loads, ug, rg, ultimate, limit, case.load,
+                          footing_response(placed, m, states[best]), states)
+
+
+@dataclass
+class FootingResult:
+    """Outcome of ``analyse_footing``.
+
+    ``status`` is "ok" or "capacity exceeded"; ``load_reached`` is the full
+    load when ok, else the ultimate load from the pushover (with its curve in
+    ``pushover``). ``response`` is the footing response at ``load_reached``.
+    """
+
+    status: str
+    load: float
+    load_reached: float
+    response: FootingResponse
+    state: State = field(repr=False)
+    pushover: PushoverResult | None = None
+
+
+def analyse_footing(case: FootingCase, load: float | None = None, steps: int = 4,
+                    rotation_limit: float = ROTATION_LIMIT) -> FootingResult:
+    """Solve one footing under lateral load H (default the case's service load).
+
+    Equilibrium with a ground-line rotation within ``rotation_limit`` gives
+    status "ok". Otherwise the footing is pushed to its limit and the result
+    says "capacity exceeded" with the load reached; nothing is raised for a
+    footing that is too weak (engine errors about a bad model still are).
+    """
+    H = case.load if load is None else float(load)
+    m, placed, node = build_case_model(case)
+    m.add_load(node, [H, 0.0, 0.0, 0.0, 0.0, 0.0])
+    try:
+        state = solve(m, factor=1.0, steps=steps, options=_QUICK)
+        resp = footing_response(placed, m, state)
+        if abs(resp.ground_rotation) <= rotation_limit:
+            return FootingResult("ok", H, H, resp, state)
+    except FemError:  # no equilibrium (or a singular tangent on the way): find the limit
+        pass
+    push = pushover(case, rotation_limit=rotation_limit)
+    if push.ultimate >= H:  # load control lost its way but the footing does carry H
+        i = int(np.argmax(push.load >= H))
+        try:
+            state = solve(m, state=push.states[i], factor=1.0, steps=1)
+            return FootingResult("ok", H, H, footing_response(placed, m, state), state, push)
+        except FemError:
+            pass
+    return FootingResult(CAPACITY_EXCEEDED, H, min(push.ultimate, H), push.response, push.state,
+                         push)
 
 
 def broms_sand_short_free_head(unit_weight, width, embedment, load_height,

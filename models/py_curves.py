@@ -121,6 +121,11 @@ class PYCurve:
         """Spring tangent L dp/dy, N/m, consistent with ``force``."""
         return self.tributary[self._sel(i)] * self.resistance_tangent(y, i)
 
+    def modulus_at_rest(self) -> np.ndarray:
+        """Slope of p(y) near y = 0 (secant over a small displacement), N/m^2 per spring."""
+        y = np.full(self.n, 1e-9) * np.maximum(self.width, 1e-3)
+        return self.resistance(y) / y
+
     def utilization(self, y: np.ndarray, i=None) -> np.ndarray:
         """|p| / p_u at each spring (0 where p_u is unbounded or zero)."""
         p = np.abs(self.resistance(y, i))
@@ -286,7 +291,8 @@ class CombinedCurves(PYCurve):
 
 
 def curves_for_profile(profile: SoilProfile, depth, width, tributary,
-                       model: str = "api", cyclic: bool = False) -> CombinedCurves:
+                       model: str = "api", cyclic: bool = False,
+                       layer: np.ndarray | None = None) -> CombinedCurves:
     """p-y springs for nodes at ``depth`` in a soil profile.
 
     Parameters
@@ -303,13 +309,16 @@ def curves_for_profile(profile: SoilProfile, depth, width, tributary,
         by Broms (friction angle given) or Matlock (strength given) p_u if any.
     cyclic
         Cyclic API sand (A = 0.9).
+    layer
+        Layer index of each spring; by default the layer at its depth. Give it
+        for the half of a node's tributary length that lies in the layer above.
     """
     if model not in ("api", "elastic_plastic"):
         raise ValueError(f"p-y model {model!r}: expected 'api' or 'elastic_plastic'")
     z, D, L = (a.copy() for a in np.broadcast_arrays(
         np.atleast_1d(np.asarray(depth, float)), np.asarray(width, float),
         np.asarray(tributary, float)))
-    layer = profile.layer_at(z)
+    layer = profile.layer_at(z) if layer is None else np.asarray(layer, int)
     sv = profile.vertical_effective_stress(z)
     parts: list[tuple[np.ndarray, PYCurve]] = []
     for j, soil in enumerate(profile.layers):
