@@ -108,16 +108,16 @@ class BeamGroup(ElementGroup):
         what = f"beam group '{name}'"
         vals = {}
         for key in ("E", "G", "A", "Iy", "Iz", "J"):
-            vals[key] = as_array(key, getattr(section, key), (ne,), what + ": ")
+            vals[key] = as_array(key, getattr(section, key), (ne,), what, per_element=True)
             positive(key, vals[key], what)
         for key in ("Asy", "Asz"):
             v = getattr(section, key)
             if v is None:
                 vals[key] = None
             else:
-                vals[key] = as_array(key, v, (ne,), what + ": ")
+                vals[key] = as_array(key, v, (ne,), what, per_element=True)
                 positive(key, vals[key], what)
-        self.weight = as_array("weight", section.weight, (ne,), what + ": ")
+        self.weight = as_array("weight", section.weight, (ne,), what, per_element=True)
         positive("weight", self.weight, what, allow_zero=True)
         self.section = vals
         x1, x2 = coords[conn[:, 0]], coords[conn[:, 1]]
@@ -129,7 +129,12 @@ class BeamGroup(ElementGroup):
             raise ModelError(f"{what} element {i}: zero length (nodes {conn[i, 0]} and {conn[i, 1]} coincide)")
         self.chord0 = chord
         e1 = chord / self.L0[:, None]
-        ov = as_array("orientation", orientation, (ne, 3), what + ": ")
+        ov = as_array("orientation", orientation, (ne, 3), what, per_element=True)
+        zero = np.linalg.norm(ov, axis=1) == 0.0
+        if np.any(zero):
+            i = int(np.argmax(zero))
+            raise ModelError(f"{what} element {i}: orientation vector is zero; give a vector across "
+                             f"the beam for local y")
         e3 = np.cross(e1, ov)
         n3 = np.linalg.norm(e3, axis=1)
         bad = n3 <= 1e-6 * np.linalg.norm(ov, axis=1)

@@ -33,14 +33,14 @@ class CableGroup(ElementGroup):
         self.conn = conn
         ne = conn.shape[0]
         what = f"cable group '{name}'"
-        self.EA = as_array("EA", EA, (ne,), what + ": ")
+        self.EA = as_array("EA", EA, (ne,), what, per_element=True)
         positive("EA", self.EA, what)
-        self.L0 = as_array("L0", L0, (ne,), what + ": ")
+        self.L0 = as_array("L0", L0, (ne,), what, per_element=True)
         positive("unstressed length L0", self.L0, what)
-        self.weight = as_array("weight", weight, (ne,), what + ": ")
+        self.weight = as_array("weight", weight, (ne,), what, per_element=True)
         positive("weight", self.weight, what, allow_zero=True)
-        self.alpha = as_array("alpha", alpha, (ne,), what + ": ")
-        self.dT = as_array("dT", dT, (ne,), what + ": ")
+        self.alpha = as_array("alpha", alpha, (ne,), what, per_element=True)
+        self.dT = as_array("dT", dT, (ne,), what, per_element=True)
         self.chord0 = coords[conn[:, 1]] - coords[conn[:, 0]]
         chord = np.linalg.norm(self.chord0, axis=1)
         short = chord <= 1e-12 * max(1.0, float(np.max(np.abs(coords))))

@@ -6,18 +6,32 @@ import numpy as np
 from .errors import ModelError
 
 
-def as_array(name: str, value, shape: tuple[int, ...] | None = None, what: str = "") -> np.ndarray:
-    """Float array with finite values; broadcast to ``shape`` when given."""
-    arr = np.asarray(value, dtype=float)
+def as_array(name: str, value, shape: tuple[int, ...] | None = None, what: str = "",
+             per_element: bool = False) -> np.ndarray:
+    """Float array with finite values; broadcast to ``shape`` when given.
+
+    With ``per_element`` the first axis counts the elements of a group and a
+    bad value is reported as "<what> element i: <name> ..."; otherwise
+    ``what`` is a prefix such as "add_load: ".
+    """
+    try:
+        arr = np.asarray(value, dtype=float)
+    except (TypeError, ValueError):
+        raise ModelError(f"{what}{': ' if per_element else ''}{name} must be numbers, got {value!r}") from None
     if shape is not None:
         try:
             arr = np.broadcast_to(arr, shape).copy()
         except ValueError:
-            raise ModelError(f"{what}{name}: expected shape {shape}, got {arr.shape}") from None
+            sep = ": " if per_element else ""
+            raise ModelError(f"{what}{sep}{name}: expected shape {shape} (or one value for all), "
+                             f"got {arr.shape}") from None
     bad = ~np.isfinite(arr)
     if np.any(bad):
-        idx = np.argwhere(bad)[0]
-        raise ModelError(f"{what}{name} is not finite (NaN or infinite) at index {tuple(int(i) for i in idx)}")
+        idx = tuple(int(i) for i in np.argwhere(bad)[0])
+        if per_element and arr.ndim:
+            rest = f" component {idx[1:] if len(idx) > 2 else idx[1]}" if len(idx) > 1 else ""
+            raise ModelError(f"{what} element {idx[0]}: {name}{rest} is not finite, got {arr[idx]}")
+        raise ModelError(f"{what}{name} is not finite (NaN or infinite) at index {idx}")
     return arr
 
 

@@ -36,11 +36,11 @@ class LinkGroup(ElementGroup):
         self.conn = conn
         ne = conn.shape[0]
         what = f"link group '{name}'"
-        self.k = as_array("stiffness", stiffness, (ne, 6), what + ": ")
+        self.k = as_array("stiffness", stiffness, (ne, 6), what, per_element=True)
         positive("stiffness", self.k.min(axis=1), what, allow_zero=True)
-        self.o1 = as_array("offset1", offset1, (ne, 3), what + ": ")
-        self.o2 = as_array("offset2", offset2, (ne, 3), what + ": ")
-        a = as_array("axes", axes, (ne, 3, 3), what + ": ")
+        self.o1 = as_array("offset1", offset1, (ne, 3), what, per_element=True)
+        self.o2 = as_array("offset2", offset2, (ne, 3), what, per_element=True)
+        a = as_array("axes", axes, (ne, 3, 3), what, per_element=True)
         norms = np.linalg.norm(a, axis=2)
         if np.any(norms < 1e-12):
             raise ModelError(f"{what}: an axis vector has zero length")

@@ -52,9 +52,16 @@ class Model:
     # -- nodes ----------------------------------------------------------
     def add_nodes(self, xyz) -> np.ndarray:
         """Add nodes at (n, 3) coordinates in metres; return their ids."""
-        arr = as_array("node coordinates", np.atleast_2d(xyz), None, "model: ")
+        try:
+            arr = np.atleast_2d(np.asarray(xyz, dtype=float))
+        except (TypeError, ValueError):
+            raise ModelError(f"node coordinates must be numbers, got {xyz!r}") from None
         if arr.ndim != 2 or arr.shape[1] != 3:
             raise ModelError(f"node coordinates must have shape (n, 3), got {arr.shape}")
+        bad = ~np.isfinite(arr)
+        if np.any(bad):
+            row, col = (int(i) for i in np.argwhere(bad)[0])
+            raise ModelError(f"node {self._n + row}: coordinate {'xyz'[col]} is not finite, got {arr[row, col]}")
         ids = np.arange(self._n, self._n + arr.shape[0])
         self._coords.append(arr)
         self._n += arr.shape[0]
@@ -89,8 +96,15 @@ class Model:
     def prescribe(self, node: int, dof, value: float) -> None:
         """Prescribe a displacement (scaled by the load factor) at one DOF."""
         n = int(self._nodes(node, "prescribe")[0])
-        val = float(as_array("prescribed value", value, (), "prescribe: "))
-        for d in parse_dofs(dof):
+        dofs = parse_dofs(dof)
+        try:
+            val = float(value)
+        except (TypeError, ValueError):
+            val = np.nan
+        if not np.isfinite(val):
+            raise ModelError(f"prescribe: node {n} {'/'.join(DOF_NAMES[d] for d in dofs)}: the value "
+                             f"must be a finite number, got {value!r}")
+        for d in dofs:
             self._fixed[n * 6 + d] = val
 
     def release(self, node: int, dofs="all") -> None:
@@ -101,10 +115,18 @@ class Model:
 
     def add_load(self, node, load) -> None:
         """Add a reference nodal load [Fx, Fy, Fz, Mx, My, Mz] (N, N m)."""
-        vec = as_array("load", load, None, "add_load: ")
+        nodes = self._nodes(node, "add_load").ravel()
+        try:
+            vec = np.asarray(load, dtype=float)
+        except (TypeError, ValueError):
+            raise ModelError(f"add_load: the load on node {nodes[0]} must be numbers, got {load!r}") from None
         if vec.shape not in ((3,), (6,)):
-            raise ModelError(f"a nodal load has 3 or 6 components, got shape {vec.shape}")
-        for n in self._nodes(node, "add_load").ravel():
+            raise ModelError(f"add_load: a nodal load has 3 or 6 components, got shape {vec.shape}")
+        bad = ~np.isfinite(vec)
+        if np.any(bad):
+            d = int(np.argmax(bad))
+            raise ModelError(f"add_load: load on node {nodes[0]} {DOF_NAMES[d]} is not finite, got {vec[d]}")
+        for n in nodes:
             for d, v in enumerate(vec):
                 if v != 0.0:
                     key = int(n) * 6 + d
@@ -163,9 +185,12 @@ class Model:
         """Add node-to-ground springs on DOF ``dof`` (index or name) of ``nodes``."""
         ids = self._nodes(nodes, f"spring group '{name}'").ravel()
         d = parse_dofs(dof)
+        if len(d) != 1 and len(d) != ids.size:
+            raise ModelError(f"spring group '{name}': give one DOF for all springs or one per node "
+                             f"({ids.size} nodes, {len(d)} DOFs)")
         dof_arr = np.asarray(d * ids.size if len(d) == 1 else d)
-        group = SpringGroup(name, ids, dof_arr[: ids.size] if len(d) == 1 else dof_arr, law, one_sided)
-        check_law(name, law, ids.size)
+        group = SpringGroup(name, ids, dof_arr, law, one_sided)
+        check_law(group, law)
         return self._add(group)
 
     def add_links(self, n1, n2, stiffness, offset1=0.0, offset2=0.0, axes=np.eye(3),

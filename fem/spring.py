@@ -5,7 +5,7 @@ from typing import Protocol
 
 import numpy as np
 
-from .checks import as_array, positive
+from .checks import as_array
 from .errors import ModelError
 from .group import DOF_NAMES, ElementGroup, Evaluation
 from .rotation import logmap
@@ -26,8 +26,12 @@ class LinearLaw:
 
     def __init__(self, k) -> None:
         self.k = np.asarray(k, dtype=float)
-        if np.any(~np.isfinite(self.k)) or np.any(self.k < 0):
-            raise ModelError(f"linear spring stiffness must be finite and non-negative, got {k}")
+        bad = ~np.isfinite(self.k) | (self.k < 0)
+        if np.any(bad):
+            i = int(np.argmax(bad.ravel()))
+            where = f" (spring {i})" if self.k.ndim else ""
+            raise ModelError(f"linear spring stiffness must be finite and non-negative, "
+                             f"got {self.k.ravel()[i]}{where}")
 
     def force(self, u: np.ndarray) -> np.ndarray:
         return self.k * u
@@ -55,7 +59,7 @@ class SpringGroup(ElementGroup):
             raise ModelError(f"spring group '{name}': DOF must be 0..5 (ux..rz), got {dof}")
         self.dof = dof_arr.copy()
         self.law = law
-        self.side = as_array("one_sided", one_sided, (ns,), f"spring group '{name}': ")
+        self.side = as_array("one_sided", one_sided, (ns,), f"spring group '{name}'", per_element=True)
         if np.any(~np.isin(self.side, (-1.0, 0.0, 1.0))):
             raise ModelError(f"spring group '{name}': one_sided must be -1, 0 or +1")
         for attr in ("force", "stiffness"):
@@ -100,10 +104,20 @@ class SpringGroup(ElementGroup):
         return f"spring '{self.name}'[{i}] at node {int(self.conn[i, 0])} {DOF_NAMES[self.dof[i]]}"
 
 
-def check_law(name: str, law: SpringLaw, size: int) -> None:
-    """Evaluate a law once at zero to catch shape errors early."""
-    f = np.asarray(law.force(np.zeros(size)))
-    if f.shape not in ((size,), ()):
-        raise ModelError(f"spring group '{name}': law.force returned shape {f.shape}, expected ({size},)")
-    positive("stiffness at zero", np.atleast_1d(law.stiffness(np.zeros(size))), f"spring group '{name}'",
-             allow_zero=True)
+def check_law(group: SpringGroup, law: SpringLaw) -> None:
+    """Evaluate a law once at zero to catch shape and value errors early."""
+    size = group.size
+    for what in ("force", "stiffness"):
+        try:
+            val = np.asarray(getattr(law, what)(np.zeros(size)), dtype=float)
+        except Exception as exc:  # a user-supplied law: report any failure as bad input
+            raise ModelError(f"spring group '{group.name}': law.{what}(0) failed: {exc}") from None
+        if val.shape not in ((size,), ()):
+            raise ModelError(f"spring group '{group.name}': law.{what} returned shape {val.shape}, "
+                             f"expected ({size},)")
+        val = np.broadcast_to(val, (size,))
+        bad = ~np.isfinite(val) | ((val < 0) if what == "stiffness" else False)
+        if np.any(bad):
+            i = int(np.argmax(bad))
+            need = "finite and non-negative" if what == "stiffness" else "finite"
+            raise ModelError(f"{group.label(i)}: {what} at zero displacement must be {need}, got {val[i]}")
