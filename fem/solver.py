@@ -5,6 +5,7 @@ from dataclasses import dataclass
 from typing import Callable
 
 import numpy as np
+import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
 from .assembly import Assembler
@@ -79,24 +80,59 @@ def _apply_increment(state: State, asm: Assembler, delta_full: np.ndarray, alpha
     return new
 
 
-def _factorise(k, asm: Assembler, model):
+#: A pivot this small relative to the largest entry of its column marks a DOF that
+#: nothing restrains (a mechanism). Checked on the first factorisation of a solve.
+MECHANISM_PIVOT = 1e-13
+
+
+def _mechanism(asm: Assembler, free_idx: np.ndarray, detail: str) -> ModelError:
+    """A ModelError naming the DOFs of a mechanism (free equation indices)."""
+    names = [f"node {asm.free[i] // 6} {DOF_NAMES[asm.free[i] % 6]}" for i in free_idx[:3]]
+    more = f" and {free_idx.size - 3} more" if free_idx.size > 3 else ""
+    node = int(asm.free[free_idx[0]] // 6)
+    return ModelError(f"the model is a mechanism: nothing restrains {', '.join(names)}{more} "
+                      f"({detail}); add a support, spring or element there. Elements at node {node}: "
+                      f"{', '.join(asm.elements_at(node)) or 'none'}")
+
+
+def _small_pivots(k_csc, lu) -> np.ndarray:
+    """Free equation indices whose pivot is negligible against their column, worst first."""
+    colmax = np.asarray(abs(k_csc).max(axis=0).todense()).ravel()
+    pivots = np.abs(lu.U.diagonal())[lu.perm_c]
+    ratio = pivots / np.maximum(colmax, 1e-300)
+    bad = np.flatnonzero(ratio < MECHANISM_PIVOT)
+    return bad[np.argsort(ratio[bad])]
+
+
+def _factorise(k, asm: Assembler, model, check_pivots: bool = False):
     import time
     t0 = time.perf_counter()
     diag = k.diagonal()
     zero = np.flatnonzero(np.abs(diag) <= 1e-300)
     if zero.size:
-        full = asm.free[zero[0]]
-        raise ModelError(f"the model is a mechanism: node {full // 6} {DOF_NAMES[full % 6]} has no "
-                         f"stiffness (add a support or an element that restrains it); "
-                         f"elements there: {', '.join(asm.elements_at(full // 6)) or 'none'}")
+        TIMINGS.linear_algebra += time.perf_counter() - t0
+        raise _mechanism(asm, zero, "no stiffness at all")
+    k_csc = k.tocsc()
     try:
-        lu = spla.splu(k.tocsc(), permc_spec="COLAMD")
+        lu = spla.splu(k_csc, permc_spec="COLAMD")
     except RuntimeError:
-        raise ModelError("the model is a mechanism: the stiffness matrix is singular "
-                         "(a part is not held against rigid-body motion)") from None
+        # exactly singular: factor with a tiny shift to find the DOFs that carry it
+        shift = 1e-15 * float(np.abs(diag).max())
+        try:
+            lu_s = spla.splu((k + shift * sp.identity(k.shape[0], format="csr")).tocsc(),
+                             permc_spec="COLAMD")
+            bad = _small_pivots(k_csc, lu_s)
+        except RuntimeError:
+            bad = np.zeros(0, dtype=np.int64)
+        raise _mechanism(asm, bad if bad.size else np.argsort(np.abs(diag))[:1],
+                         "the stiffness matrix is singular") from None
     finally:
         TIMINGS.linear_algebra += time.perf_counter() - t0
         TIMINGS.factorisations += 1
+    if check_pivots:
+        bad = _small_pivots(k_csc, lu)
+        if bad.size:
+            raise _mechanism(asm, bad, "the stiffness matrix is singular")
     return lu
 
 
@@ -122,7 +158,7 @@ def _sites(asm, r_full, count=3) -> list[ImbalanceSite]:
             for k in worst if r_free[k] != 0.0]
 
 
-def _newton(model, asm, coords, state, f_ext, opts):
+def _newton(model, asm, coords, state, f_ext, opts, check_pivots=False):
     """Iterate to equilibrium under f_ext; return (state, history) or raise _Fail."""
     history: list[float] = []
     evals = _evaluate(model, coords, state, True)
@@ -142,7 +178,7 @@ def _newton(model, asm, coords, state, f_ext, opts):
         if it == opts.max_iterations:
             break
         k = asm.tangent(evals)
-        lu = _factorise(k, asm, model)
+        lu = _factorise(k, asm, model, check_pivots and it == 0)
         delta = _solve_linear(lu, r_full[asm.free])
         if not np.all(np.isfinite(delta)):
             raise _Fail("the linear solve gave non-finite corrections", history, r_full)
@@ -220,6 +256,10 @@ def solve(model, state: State | None = None, factor: float = 1.0, steps: int = 1
         When the model is invalid or a mechanism.
     """
     opts = options or SolverOptions()
+    if not np.isfinite(factor):
+        raise ModelError(f"solve: the load factor must be a finite number, got {factor}")
+    if int(steps) < 1:
+        raise ModelError(f"solve: steps must be at least 1, got {steps}")
     asm = _assembler(model)
     coords = model.coords
     if state is None:
@@ -243,7 +283,7 @@ def solve(model, state: State | None = None, factor: float = 1.0, steps: int = 1
         trial.prescribed = p_new
         f_ext = f0 + t_new * (f1 - f0)
         try:
-            trial, history, evals = _newton(model, asm, coords, trial, f_ext, opts)
+            trial, history, evals = _newton(model, asm, coords, trial, f_ext, opts, step == 1)
         except _Fail as fail:
             if dt <= opts.min_increment:
                 raise ConvergenceError(fail.reason, step, t_new, fail.history,
