@@ -15,6 +15,7 @@ Public:
   node of any model; returns a ``PlacedFooting`` handle.
 - ``footing_response(placed, model, state, direction)``: ground-line
   displacement and rotation, point of rotation, p(z), p/p_u, moment, shear.
+- ``ibc_check``: IBC 2021 embedment depth check of the footing.
 - ``FootingCase``, ``build_case_model``: one footing with its post above
   grade, loaded laterally, as a model of its own (solved and pushed to its
   limit in ``models.footing_capacity``).
@@ -27,6 +28,8 @@ import numpy as np
 
 from fem import BeamSection, LinearLaw, Model, State
 from models.errors import InputError
+from models.ibc_embedment import (IBC_LATERAL_BEARING_PSF_PER_FT, EmbedmentCheck,
+                                  check_embedment, ibc_class_key, round_or_square_width)
 from models.py_curves import CombinedCurves, curves_for_profile
 from models.soil import SoilProfile
 
@@ -73,6 +76,8 @@ class Footing:
         Vector setting the local y axis of the embedded member.
     where
         Key path of the footing in the scenario, for error messages.
+    shape
+        ``"round"`` or ``"square"`` (IBC b: diameter, or diagonal of a square).
     """
 
     depth: float
@@ -87,6 +92,7 @@ class Footing:
     elements: int = 40
     orientation: tuple[float, float, float] = (0.0, 1.0, 0.0)
     where: str = "footing"
+    shape: str = "round"
 
     def validate(self, profile: SoilProfile) -> None:
         """Raise InputError naming the first bad value (and the footing's key path)."""
@@ -110,8 +116,34 @@ class Footing:
         if self.py_model not in ("api", "elastic_plastic"):
             raise InputError(f"p-y model {self.py_model!r} is not known; expected 'api' or "
                              "'elastic_plastic'", where=f"{w}.py_model")
+        if self.shape not in ("round", "square"):
+            raise InputError(f"footing shape {self.shape!r} is not known; expected 'round' or "
+                             "'square'", where=f"{w}.shape")
         if int(self.elements) < 2:
             raise InputError(f"elements {self.elements} must be at least 2", where=f"{w}.elements")
+
+
+def ibc_check(footing: Footing, profile: SoilProfile, load: float, load_height: float,
+              constrained: bool = False, doubled: bool = False) -> EmbedmentCheck:
+    """IBC 2021 embedment check of a footing (Eq. 18-1, or Eq. 18-2 if ``constrained``).
+
+    The soil class is the weakest Table 1806.2 class among the layers the
+    footing passes through; every such layer needs its ``ibc_class``.
+    ``doubled`` applies §1806.3.4 (isolated poles, 1/2 inch motion acceptable).
+    """
+    footing.validate(profile)
+    classes = []
+    for i, layer in enumerate(profile.layers):
+        if layer.top >= footing.depth:
+            break
+        if layer.ibc_class is None:
+            raise InputError(f"the IBC embedment check needs the Table 1806.2 class of every "
+                             f"layer the footing passes through; layer {i} has none",
+                             where=f"{profile.where}.layer[{i}].ibc_class")
+        classes.append(ibc_class_key(layer.ibc_class))
+    weakest = min(classes, key=IBC_LATERAL_BEARING_PSF_PER_FT.__getitem__)
+    b = float(round_or_square_width(footing.width, footing.shape))
+    return check_embedment(load, load_height, b, footing.depth, weakest, constrained, doubled)
 
 
 def soil_modulus(profile: SoilProfile, depth, width: float) -> np.ndarray:

@@ -24,7 +24,7 @@ from models.footing import FootingCase, FootingResponse, build_case_model, footi
 from models.py_curves import passive_coefficient
 
 CAPACITY_EXCEEDED = "capacity exceeded"
-_QUICK = SolverOptions(max_iterations=12, min_increment=0.03)  # give up early, then push
+_QUICK = SolverOptions(max_iterations=10, min_increment=0.05)  # give up early, then push
 ROTATION_LIMIT = 0.1  # rad, ground-line rotation taken as failure of the soil (about 6 deg)
 
 
@@ -74,11 +74,43 @@ class PushoverResult:
         return self.ultimate / self.service_load if self.service_load > 0 else float("inf")
 
 
-def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: int = 30,
+def rigid_limit_load(depth: np.ndarray, p_limit: np.ndarray, load_height: float) -> float:
+    """Lateral load at which a rigid member mobilises ``p_limit`` on both faces, N.
+
+    The front face resists above the point of rotation z_r and the back face
+    below it; z_r follows from moment equilibrium about the load. With
+    ``p_limit`` the largest resistance of each curve this bounds the pushover
+    result from above (a flexible member mobilises less within the rotation
+    limit).
+
+    Parameters
+    ----------
+    depth, p_limit
+        Depths (m, increasing) and limit resistance per length (N/m) there.
+    load_height
+        Height of the load above grade, m.
+    """
+    z = np.linspace(depth[0], depth[-1], 2001)
+    p = np.interp(z, depth, p_limit)
+    dz = np.diff(z)
+    f = np.concatenate([[0.0], np.cumsum(0.5 * (p[1:] + p[:-1]) * dz)])        # force above z
+    pz = p * z
+    mz = np.concatenate([[0.0], np.cumsum(0.5 * (pz[1:] + pz[:-1]) * dz)])      # its moment
+    H = f - (f[-1] - f)
+    resid = H * load_height + mz - (mz[-1] - mz)  # moments about grade, candidates z_r = z
+    i = np.flatnonzero((resid[:-1] < 0) & (resid[1:] >= 0))
+    if i.size == 0:
+        return float(max(H[-1], 0.0))
+    k = i[0]
+    w = -resid[k] / (resid[k + 1] - resid[k])
+    return float(H[k] + w * (H[k + 1] - H[k]))
+
+
+def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: int = 24,
              plateau: float = 0.005) -> PushoverResult:
     """Push a footing's load point in +x by displacement control to its limit.
 
-    Displacements grow geometrically from 1/1000 to all of
+    Displacements grow geometrically from 1/500 to all of
     ``rotation_limit * (e + L)``; a step that finds no equilibrium is halved
     up to four times. The push stops when the load grows by less than
     ``plateau`` (relative) over a step while the tangent has dropped below 1 %
@@ -88,7 +120,7 @@ def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: 
     """
     m, placed, node = build_case_model(case)
     u_max = rotation_limit * (case.load_height + case.footing.depth)
-    targets = list(u_max * np.geomspace(1e-3, 1.0, points))
+    targets = list(u_max * np.geomspace(2e-3, 1.0, points))
     state = None
     us, loads, ug, rg, states = [0.0], [0.0], [0.0], [0.0], [None]
     limit, halvings = "displacement limit", 0
@@ -165,13 +197,21 @@ def analyse_footing(case: FootingCase, load: float | None = None, steps: int = 4
     H = case.load if load is None else float(load)
     m, placed, node = build_case_model(case)
     m.add_load(node, [H, 0.0, 0.0, 0.0, 0.0, 0.0])
-    try:
-        state = solve(m, factor=1.0, steps=steps, options=_QUICK)
-        resp = footing_response(placed, m, state)
-        if abs(resp.ground_rotation) <= rotation_limit:
-            return FootingResult("ok", H, H, resp, state)
-    except FemError:  # no equilibrium (or a singular tangent on the way): find the limit
-        pass
+    c = placed.curves
+    bound = np.inf
+    if case.one_sided == 0 and not case.footing.base_shear_stiffness \
+            and not case.footing.base_moment_stiffness and np.all(np.isfinite(c.p_ultimate)):
+        p_lim = np.bincount(placed.spring_node, weights=c.p_ultimate * c.tributary) \
+            / np.bincount(placed.spring_node, weights=c.tributary)
+        bound = rigid_limit_load(placed.depths, p_lim, case.load_height)
+    if H <= bound:  # above the rigid-member bound no equilibrium can exist: skip to the push
+        try:
+            state = solve(m, factor=1.0, steps=steps, options=_QUICK)
+            resp = footing_response(placed, m, state)
+            if abs(resp.ground_rotation) <= rotation_limit:
+                return FootingResult("ok", H, H, resp, state)
+        except FemError:  # no equilibrium (or a singular tangent on the way): find the limit
+            pass
     push = pushover(case, rotation_limit=rotation_limit)
     if push.ultimate >= H:  # load control lost its way but the footing does carry H
         i = int(np.argmax(push.load >= H))

@@ -18,7 +18,7 @@ from scipy.optimize import brentq
 
 from fem import BeamSection
 from models.footing import Footing, FootingCase
-from models.footing_capacity import broms_sand_short_free_head, pushover
+from models.footing_capacity import broms_sand_short_free_head, pushover, rigid_limit_load
 from models.soil import SoilLayer, SoilProfile
 
 GAMMA, PHI, D, L, E_LOAD = 18e3, 30.0, 0.3, 1.5, 1.0
@@ -63,3 +63,16 @@ def test_rigid_pile_both_faces_matches_statics():
     push = pushover(case())
     assert push.ultimate == pytest.approx(expected, rel=0.03)
     assert push.response.rotation_point_depth == pytest.approx(zr, rel=0.03)
+
+
+def test_rigid_limit_load_matches_statics_and_bounds_the_push():
+    q = 3 * np.tan(np.radians(45 + PHI / 2)) ** 2 * GAMMA * D
+    z = np.linspace(0, L, 31)
+    bound = rigid_limit_load(z, q * z, E_LOAD)
+
+    def moment(zr):  # as in test_rigid_pile_both_faces_matches_statics
+        H = q * (2 * zr**2 - L**2) / 2
+        return H * E_LOAD + q * zr**3 / 3 - q * (L**3 - zr**3) / 3
+
+    zr = brentq(moment, L / np.sqrt(2) * (1 + 1e-9), L)
+    assert bound == pytest.approx(q * (2 * zr**2 - L**2) / 2, rel=1e-3)

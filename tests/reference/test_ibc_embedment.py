@@ -98,3 +98,22 @@ def test_vectorised_matches_scalar():
     for Pi, di in zip(P, d):
         assert di == pytest.approx(required_depth_nonconstrained(Pi, si(10, "ft"), si(1, "ft"),
                                                                  si(150, "lbf/ft**3")))
+
+
+def test_footing_check_uses_weakest_class_crossed_and_square_diagonal():
+    # A 1 ft square pier through sand (150 psf/ft) into clay (100 psf/ft): the clay value
+    # governs and b is the diagonal, sqrt(2) ft. P = 500 lb at 10 ft. Hand working:
+    # S1 = 100 d/3; cubic d^3 - c d - 1.09 h c = 0 with c = 7.02 x 500 / (100 x 1.4142)
+    # = 24.82: d = 7.7 gives 456.5 - 191.1 - 270.5 = -5.1; d = 7.73 gives 461.9 - 191.9
+    # - 270.5 = -0.5; d = 7.733 -> 0.0 ; so about 7.73 ft.
+    from fem import BeamSection
+    from models.footing import Footing, ibc_check
+    from models.soil import SoilProfile, preset_layer
+
+    prof = SoilProfile((preset_layer("medium_dense_sand", 0, si(2, "ft")),
+                        preset_layer("stiff_clay", si(2, "ft"), si(12, "ft"))))
+    pier = Footing(si(8, "ft"), si(1, "ft"), BeamSection.circle(20e9, 8e9, 0.3), shape="square")
+    chk = ibc_check(pier, prof, si(500, "lbf"), si(10, "ft"))
+    assert chk.ibc_class == "clay"
+    assert to_ft(chk.required_depth) == pytest.approx(7.73, abs=0.01)
+    assert chk.passes
