@@ -90,9 +90,11 @@ def _mechanism(asm: Assembler, free_idx: np.ndarray, detail: str) -> ModelError:
     names = [f"node {asm.free[i] // 6} {DOF_NAMES[asm.free[i] % 6]}" for i in free_idx[:3]]
     more = f" and {free_idx.size - 3} more" if free_idx.size > 3 else ""
     node = int(asm.free[free_idx[0]] // 6)
-    return ModelError(f"the model is a mechanism: nothing restrains {', '.join(names)}{more} "
-                      f"({detail}); add a support, spring or element there. Elements at node {node}: "
-                      f"{', '.join(asm.elements_at(node)) or 'none'}")
+    err = ModelError(f"the model is a mechanism: nothing restrains {', '.join(names)}{more} "
+                     f"({detail}); add a support, spring or element there. Elements at node {node}: "
+                     f"{', '.join(asm.elements_at(node)) or 'none'}")
+    err.where = f"{', '.join(names)}{more}"
+    return err
 
 
 def _small_pivots(k_csc, lu) -> np.ndarray:
@@ -178,7 +180,15 @@ def _newton(model, asm, coords, state, f_ext, opts, check_pivots=False):
         if it == opts.max_iterations:
             break
         k = asm.tangent(evals)
-        lu = _factorise(k, asm, model, check_pivots and it == 0)
+        first = check_pivots and it == 0
+        try:
+            lu = _factorise(k, asm, model, first)
+        except ModelError as err:
+            if first or not hasattr(err, "where"):
+                raise
+            # the model had stiffness at the start; an iterate that lost it (a spring
+            # past its capacity, a gap opened) is a convergence failure, not bad input
+            raise _Fail(f"the tangent stiffness vanished at {err.where}", history, r_full) from None
         delta = _solve_linear(lu, r_full[asm.free])
         if not np.all(np.isfinite(delta)):
             raise _Fail("the linear solve gave non-finite corrections", history, r_full)
