@@ -176,7 +176,7 @@ def characteristic_length(profile: SoilProfile, stiffness: float, width: float,
     return hi
 
 
-ELEMENTS_PER_LENGTH = 8  # elements per characteristic length: mesh halving then moves results < 1 %
+ELEMENTS_PER_LENGTH = 8  # per characteristic length: halving the mesh then moves results < 1 %
 
 
 def embedment_depths(footing: Footing, profile: SoilProfile) -> np.ndarray:

@@ -1,9 +1,10 @@
 """Lateral capacity of footings: pushover, the service-load analysis, Broms (1964).
 
-- ``pushover(case)``: push the load point sideways by displacement control
-  until the load stops growing (plateau), equilibrium is lost, or the
-  ground-line rotation passes its limit; gives the load-displacement curve and
-  the ultimate lateral load.
+- ``pushover(case)`` / ``pushover_model(model, node, placed, ...)``: push a
+  footing's load point (or a node above a footing placed in any model)
+  sideways by displacement control until the load stops growing (plateau),
+  equilibrium is lost, or the ground-line rotation passes its limit; gives
+  the load-displacement curve and the ultimate lateral load.
 - ``analyse_footing(case)``: the footing under its service load; a load it
   cannot carry is reported as "capacity exceeded" with the load reached
   (from the pushover), not raised.
@@ -18,9 +19,10 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from fem import SolverOptions, State, solve
+from fem import Model, SolverOptions, State, solve
 from fem.errors import FemError
-from models.footing import FootingCase, FootingResponse, build_case_model, footing_response
+from models.footing import (FootingCase, FootingResponse, PlacedFooting, build_case_model,
+                            footing_response)
 from models.py_curves import passive_coefficient
 
 CAPACITY_EXCEEDED = "capacity exceeded"
@@ -48,9 +50,9 @@ class PushoverResult:
     service_load
         The case's service load, N; ``ratio`` = ultimate / service_load.
     response
-        Footing response at the ultimate point.
+        Footing response at the highest load within the limits (point ``best``).
     states
-        Engine state at each point (``None`` at the unloaded start).
+        Engine state at each point (``None`` at an unloaded start).
     """
 
     displacement: np.ndarray
@@ -62,11 +64,12 @@ class PushoverResult:
     service_load: float
     response: FootingResponse
     states: list = field(repr=False, default_factory=list)
+    best: int = -1
 
     @property
     def state(self) -> State:
-        """Engine state at the highest load reached."""
-        return self.states[int(np.argmax(self.load))]
+        """Engine state at the point of ``response`` (highest load within the limits)."""
+        return self.states[self.best]
 
     @property
     def ratio(self) -> float:
@@ -110,25 +113,47 @@ def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: 
              plateau: float = 0.005) -> PushoverResult:
     """Push a footing's load point in +x by displacement control to its limit.
 
-    Displacements grow geometrically from 1/500 to all of
-    ``rotation_limit * (e + L)``; a step that finds no equilibrium is halved
-    up to four times. The push stops when the load grows by less than
-    ``plateau`` (relative) over a step while the tangent has dropped below 1 %
-    of the initial one, when the ground-line rotation passes
-    ``rotation_limit`` (the load there is interpolated), or when no
-    equilibrium is found.
+    The load point goes out to ``rotation_limit * (e + L)`` at most; see
+    ``pushover_model`` for the steps and the stopping rules.
     """
     m, placed, node = build_case_model(case)
     u_max = rotation_limit * (case.load_height + case.footing.depth)
-    targets = list(u_max * np.geomspace(2e-3, 1.0, points))
-    state = None
-    us, loads, ug, rg, states = [0.0], [0.0], [0.0], [0.0], [None]
+    return pushover_model(m, node, placed, u_max, "ux", rotation_limit=rotation_limit,
+                          points=points, plateau=plateau, service_load=case.load)
+
+
+def pushover_model(model: Model, node: int, placed: PlacedFooting, u_max: float,
+                   dof: str = "ux", state: State | None = None,
+                   rotation_limit: float = ROTATION_LIMIT, points: int = 24,
+                   plateau: float = 0.005, service_load: float = 0.0) -> PushoverResult:
+    """Push ``node`` of any model along ``dof`` ("ux" or "uy") and watch one footing.
+
+    The node's displacement is prescribed (on top of ``state``, e.g. an
+    installed state) in steps growing geometrically from ``u_max``/500 to
+    ``u_max``; the load is the reaction there. A step that finds no
+    equilibrium is halved up to four times. The push stops when the load
+    grows by less than ``plateau`` (relative) over a step while the tangent
+    has dropped below 1 % of the initial one ("plateau"), when the footing's
+    ground-line rotation passes ``rotation_limit`` ("rotation limit": the load
+    there is interpolated), when no equilibrium is found ("no equilibrium"),
+    or at ``u_max`` ("displacement limit"). The model keeps the prescribed
+    displacement afterwards.
+    """
+    k = {"ux": 0, "uy": 1}[dof]
+    direction = (1.0, 0.0) if k == 0 else (0.0, 1.0)
+    u0 = 0.0 if state is None else float(state.translation[node, k])
+    targets = list(u0 + u_max * np.geomspace(2e-3, 1.0, points))
+    us, loads, ug, rg, states = [u0], [0.0], [0.0], [0.0], [state]
+    if state is not None:
+        first = footing_response(placed, model, state, direction)
+        loads[0], ug[0], rg[0] = (float(state.reactions[node, k]), first.ground_displacement,
+                                  first.ground_rotation)
     limit, halvings = "displacement limit", 0
     while targets:
         u = targets[0]
-        m.prescribe(node, "ux", u)
+        model.prescribe(node, dof, u)
         try:
-            trial = solve(m, state=state, factor=1.0, steps=1)
+            trial = solve(model, state=state, factor=1.0, steps=1)
         except FemError:
             if halvings >= 4:
                 limit = "no equilibrium"
@@ -139,33 +164,32 @@ def pushover(case: FootingCase, rotation_limit: float = ROTATION_LIMIT, points: 
         halvings = 0
         targets.pop(0)
         state = trial
-        resp = footing_response(placed, m, state)
+        resp = footing_response(placed, model, state, direction)
         us.append(u)
-        loads.append(float(state.reactions[node, 0]))
+        loads.append(float(state.reactions[node, k]))
         ug.append(resp.ground_displacement)
         rg.append(resp.ground_rotation)
         states.append(state)
         if abs(rg[-1]) > rotation_limit:
             limit = "rotation limit"
             break
-        k0 = loads[1] / us[1]
-        k = (loads[-1] - loads[-2]) / (us[-1] - us[-2])
-        if len(loads) > 3 and k < 0.01 * k0 and loads[-1] - loads[-2] < plateau * loads[-1]:
+        k0 = (loads[1] - loads[0]) / (us[1] - us[0])
+        slope = (loads[-1] - loads[-2]) / (us[-1] - us[-2])
+        if len(loads) > 3 and slope < 0.01 * k0 and loads[-1] - loads[-2] < plateau * loads[-1]:
             limit = "plateau"
             break
     us, loads, ug, rg = (np.array(v) for v in (us, loads, ug, rg))
+    within = len(loads) - 1 if limit == "rotation limit" else len(loads)
+    best = int(np.argmax(loads[:within]))
+    ultimate = float(loads[best])
     if limit == "rotation limit":  # interpolate the load where the rotation reaches the limit
         r0, r1 = abs(rg[-2]), abs(rg[-1])
         w = (rotation_limit - r0) / (r1 - r0)
-        ultimate = float(loads[-2] + w * (loads[-1] - loads[-2]))
-        ultimate = max(ultimate, float(np.max(loads[:-1])))
-    else:
-        ultimate = float(np.max(loads))
-    best = int(np.argmax(loads))
+        ultimate = max(ultimate, float(loads[-2] + w * (loads[-1] - loads[-2])))
     if states[best] is None:
         raise FemError("pushover: no equilibrium even at the first, smallest displacement")
-    return PushoverResult(us, loads, ug, rg, ultimate, limit, case.load,
-                          footing_response(placed, m, states[best]), states)
+    return PushoverResult(us, loads, ug, rg, ultimate, limit, service_load,
+                          footing_response(placed, model, states[best], direction), states, best)
 
 
 @dataclass

@@ -275,7 +275,7 @@ class SoilProfile:
 
 def profile_from_specs(layer_specs: list[Any], water_table: float | None = None,
                        where: str = "soil") -> SoilProfile:
-    """Build and validate a SoilProfile from a list of layer specs (see ``SoilLayer.from_spec``)."""
+    """Build and validate a SoilProfile from layer specs (see ``SoilLayer.from_spec``)."""
     return SoilProfile(tuple(SoilLayer.from_spec(s) for s in layer_specs), water_table, where)
 
 

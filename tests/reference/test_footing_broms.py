@@ -6,7 +6,6 @@ Sand: pressure 3 Kp gamma z D, back reaction lumped at the toe,
 H_u = 0.5 gamma D L^3 Kp / (e + L). Clay: no resistance over 1.5 D, then 9 c D
 acting forward down to the point of rotation and backward below it.
 """
-import numpy as np
 import pytest
 from scipy.integrate import quad
 from scipy.optimize import fsolve

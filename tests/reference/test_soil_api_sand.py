@@ -29,7 +29,8 @@ def reese_flow(phi_deg, gamma, z, D):
     phi = np.radians(phi_deg)
     b = np.radians(45) + phi / 2
     ka = np.tan(np.radians(45) - phi / 2) ** 2
-    return ka * D * gamma * z * (np.tan(b) ** 8 - 1) + K0 * D * gamma * z * np.tan(phi) * np.tan(b) ** 4
+    return (ka * D * gamma * z * (np.tan(b) ** 8 - 1)
+            + K0 * D * gamma * z * np.tan(phi) * np.tan(b) ** 4)
 
 
 @pytest.mark.parametrize("phi", [30.0, 36.0])
