@@ -60,7 +60,7 @@ def _rows(factors) -> tuple[dict, ...]:
 def check_laminated(post: LaminatedPost, res: LaminatedResults, *, le: float | None = None,
                     duration: str = "ten years", wet: bool = True,
                     incised: bool = False) -> list[LaminatedCheck]:
-    """Ply stress, ply shear and fastener checks of a laminated post.
+    """Ply strength, post stability, ply shear and fastener checks of a laminated post.
 
     Parameters
     ----------
@@ -79,9 +79,15 @@ def check_laminated(post: LaminatedPost, res: LaminatedResults, *, le: float | N
 
     Notes
     -----
-    The moments come from a second-order (P-delta) analysis and NDS 3.9.2
-    amplifies them again: conservative. Biaxial tension plus bending uses
-    ft/Ft' + fb1/Fb1* + fb2/Fb2' (common practice extension of NDS 3.9.1).
+    Ply strength (each ply, each level): its own axial stress (including the
+    couple force of composite action) with its bending stresses, NDS 3.9.1 in
+    net tension, NDS 3.9.2 without stability terms (CP = CL = 1) in
+    compression. Post stability (each level): NDS 3.9.2 for the built-up
+    column with the post's mean axial stress, CP with Kf (NDS 15.3) across
+    the ply faces, the worst bending stress along the joints (edgewise) and
+    across them (couple part of the ply stress plus flatwise bending,
+    compared with Fb without Cfu). The moments come from a second-order
+    analysis and NDS 3.9.2 amplifies them again: conservative.
     """
     d = post.design
     L = post.length
@@ -90,50 +96,45 @@ def check_laminated(post: LaminatedPost, res: LaminatedResults, *, le: float | N
     le_note = f"le = {le:.3g} m{le_note}"
     checks: list[LaminatedCheck] = []
     depth_stack = float(d.thicknesses.sum())
+    A = np.array([p.area for p in d.plies])[:, None, None]
+    t = d.thicknesses[:, None, None]
+    w = np.array([p.width for p in d.plies])[:, None, None]
+    sig_n = res.N / A                                  # ply axial stress, tension +
+    fb_edge = np.abs(res.M_edge) / (t * w**2 / 6)
+    fb_flat = np.abs(res.M_flat) / (w * t**2 / 6)
+    edge_adj, flat_adj = [], []
     for i, ply in enumerate(d.plies):
         edge = adjusted_values(ply.values, ply.size, duration=duration, wet=wet, incised=incised)
         flat = adjusted_values(ply.values, ply.size, duration=duration, wet=wet, incised=incised,
                                flatwise=True)
-        Emin = edge["Emin"]
-        kf = KF_BUILT_UP.get(d.fastener.kind, 0.6)
-        cp_edge = column_stability_factor(edge["Fc_star"], Emin, le / ply.width, c=0.8)
-        cp_stack = column_stability_factor(edge["Fc_star"], Emin, le / depth_stack, c=0.8, Kf=kf)
-        cp = min(cp_edge, cp_stack, key=lambda f: f.value)
-        le_b = bending_effective_length(L, ply.width, "cantilever point load")
-        cl = beam_stability_factor(edge["Fb_star"], Emin, le_b, ply.width, depth_stack)
-        Fc = edge["Fc_star"] * cp.value
-        Fb1 = edge["Fb_star"] * cl.value
-        Fb2 = flat["Fb"]
-        FcE1 = column_buckling_stress(Emin, le / ply.width)
-        FcE2 = column_buckling_stress(Emin, le / depth_stack)
-        FbE = 1.20 * Emin / (le_b * ply.width / depth_stack**2) if ply.width > depth_stack else np.inf
-        A = ply.area
-        N = res.N[i].ravel()
-        fb1 = np.abs(res.M_edge[i].ravel()) / (ply.thickness * ply.width**2 / 6)
-        fb2 = np.abs(res.M_flat[i].ravel()) / (ply.width * ply.thickness**2 / 6)
-        comp = bending_compression(np.maximum(-N, 0.0) / A, fb1, fb2, Fc, Fb1, Fb2,
-                                   FcE1, FcE2, FbE).value
-        ft = np.maximum(N, 0.0) / A
-        fb = fb1 + fb2
-        tens = np.maximum(ft / edge["Ft"] + fb1 / edge["Fb_star"] + fb2 / Fb2,
-                          (fb1 / Fb1 + fb2 / Fb2) * np.maximum(fb - ft, 0.0) / np.maximum(fb, 1e-300))
-        values = np.where(N < 0, comp, tens)
+        edge_adj.append(edge)
+        flat_adj.append(flat)
+        cfu = Factor("Cfu", "flat use", flat.product("Fb") / edge.product("Fb"),
+                     ("Fb flatwise",), "NDS Supplement Table 4A (from memory)")
+        Fb1, Fb2 = edge["Fb_star"], flat["Fb"]
+        comp = bending_compression(np.maximum(-sig_n[i], 0.0), fb_edge[i], fb_flat[i],
+                                   edge["Fc_star"], Fb1, Fb2, np.inf, np.inf).value
+        ft = np.maximum(sig_n[i], 0.0)
+        fb = fb_edge[i] + fb_flat[i]
+        tens = np.maximum(ft / edge["Ft"] + fb_edge[i] / Fb1 + fb_flat[i] / Fb2,
+                          (fb_edge[i] / Fb1 + fb_flat[i] / Fb2) * np.maximum(fb - ft, 0.0)
+                          / np.maximum(fb, 1e-300))
+        values = np.where(sig_n[i] < 0, comp, tens).ravel()
         k = int(np.argmax(values))
-        factors = list(edge.factors) + [Factor("Cfu", "flat use", flat.product("Fb") /
-                                               edge.product("Fb"), ("Fb flatwise",),
-                                               "NDS Supplement Table 4A (from memory)"), cp, cl]
+        n_k = float(res.N[i].ravel()[k])
         checks.append(LaminatedCheck(
-            f"ply {i + 1}", "axial + bending, both axes", float(values[k]), 1.0, "-",
-            float(res.heights[i].ravel()[k]),
-            "NDS 3.9.2" if N[k] < 0 else "NDS 3.9.1", _rows(factors),
-            f"{le_note}; N = {N[k]:.4g} N, fb edge {fb1[k]:.4g} Pa, fb flat {fb2[k]:.4g} Pa; "
-            "second-order moments amplified again (conservative)"))
-        fv = 1.5 * np.maximum(np.abs(res.V_flat[i]), np.abs(res.V_edge[i])).ravel() / A
+            f"ply {i + 1}", "strength: axial + bending", float(values[k]), 1.0, "-",
+            float(res.heights[i].ravel()[k]), "NDS 3.9.2" if n_k < 0 else "NDS 3.9.1",
+            _rows(list(edge.factors) + [cfu]),
+            f"N = {n_k:.4g} N, fb edge {fb_edge[i].ravel()[k]:.4g} Pa, "
+            f"fb flat {fb_flat[i].ravel()[k]:.4g} Pa"))
+        fv = 1.5 * np.maximum(np.abs(res.V_flat[i]), np.abs(res.V_edge[i])).ravel() / ply.area
         k = int(np.argmax(fv))
         checks.append(LaminatedCheck(
             f"ply {i + 1}", "shear", float(fv[k]), float(edge["Fv"]), "Pa",
             float(res.heights[i].ravel()[k]), "NDS 3.4.2 (fv = 1.5 V / A)",
             _rows(f for f in edge.factors if "Fv" in f.applies_to)))
+    checks.append(_stability(post, res, sig_n, fb_edge, fb_flat, edge_adj, le, le_note))
     lf = lateral_factors(duration, wet)
     adj = float(np.prod([f.value for f in lf]))
     for j in range(d.n - 1):
@@ -148,3 +149,41 @@ def check_laminated(post: LaminatedPost, res: LaminatedResults, *, le: float | N
             f"{d.fastener.name}, governing yield mode {Z.mode}, Z = {Z.Z:.4g} N; "
             f"slip {res.slip_along[j][k] * 1000 if force.size else 0.0:.3g} mm along the post"))
     return checks
+
+
+def _stability(post, res, sig_n, fb_edge, fb_flat, edge_adj, le, le_note) -> LaminatedCheck:
+    """NDS 3.9.2 for the whole built-up post at every level (weakest ply values)."""
+    d = post.design
+    A = np.array([p.area for p in d.plies])[:, None, None]
+    depth_stack = float(d.thicknesses.sum())
+    w = min(p.width for p in d.plies)
+    mean = res.N.sum(axis=0) / A.sum()                             # post mean axial stress
+    fc = np.maximum(-mean, 0.0)                                    # post axial compression
+    f_side = fb_edge.max(axis=0)
+    f_stack = (np.abs(sig_n - mean[None]) + fb_flat).max(axis=0)   # couple + flatwise bending
+    i = int(np.argmin([e["Fc_star"] for e in edge_adj]))
+    e = edge_adj[i]
+    Emin = min(a["Emin"] for a in edge_adj)
+    Fb_star = min(a["Fb_star"] for a in edge_adj)
+    kf = KF_BUILT_UP.get(d.fastener.kind, 0.6)
+    cp_side = column_stability_factor(e["Fc_star"], Emin, le / w, c=0.8)
+    cp_stack = column_stability_factor(e["Fc_star"], Emin, le / depth_stack, c=0.8, Kf=kf)
+    cp = min(cp_side, cp_stack, key=lambda f: f.value)
+    if w >= depth_stack:
+        le_b = bending_effective_length(post.length, w, "cantilever point load")
+        cl = beam_stability_factor(Fb_star, Emin, le_b, w, depth_stack)
+        FbE = 1.20 * Emin / (le_b * w / depth_stack**2) if w > depth_stack else np.inf
+    else:
+        cl = beam_stability_factor(Fb_star, Emin, 1.0, w, depth_stack)   # d <= b: CL = 1
+        FbE = np.inf
+    FcE1 = column_buckling_stress(Emin, le / w)
+    FcE2 = column_buckling_stress(Emin, le / depth_stack)
+    val = bending_compression(fc, f_side, f_stack, e["Fc_star"] * cp.value, Fb_star * cl.value,
+                              Fb_star, FcE1, FcE2, FbE).value.ravel()
+    k = int(np.argmax(val))
+    return LaminatedCheck(
+        "post", "stability: axial + bending (built-up column)", float(val[k]), 1.0, "-",
+        float(res.heights[0].ravel()[k]), "NDS 3.9.2, 3.7.1, 15.3", _rows(list(e.factors) + [cp, cl]),
+        f"{le_note}; fc = {fc.ravel()[k]:.4g} Pa, fb along joints {f_side.ravel()[k]:.4g} Pa, "
+        f"fb across joints {f_stack.ravel()[k]:.4g} Pa (Fb without Cfu); "
+        "second-order moments amplified again (conservative)")

@@ -35,13 +35,16 @@ def test_ply_bending_check_by_hand():
     # d = 7.25 in, b = 2 x 1.5 = 3.0 in, RB^2 = 163.48 * 7.25 / 9 = 131.69,
     # Emin' = 580,000 x 0.9 (wet) = 522,000 psi, FbE = 1.2 Emin'/RB^2 = 4756.6 psi,
     # a = FbE/Fb* = 4.4043, CL = (1+a)/1.9 - sqrt(((1+a)/1.9)^2 - a/0.95) = 0.98580;
-    # Fb1' = 1064.7 psi; interaction = fb / Fb1' = 0.7908.
+    # Ply strength (no stability): fb / Fb* = 841.93 / 1080 = 0.77957.
+    # Post stability (NDS 3.9.2, fc = 0): fb / (Fb* CL) = 841.93 / 1064.66 = 0.79080.
     post, res = _side_by_side_post(1000.0)
     checks = check_laminated(post, res)
-    ply = [c for c in checks if c.part == "ply 1" and c.check.startswith("axial")][0]
+    ply = [c for c in checks if c.part == "ply 1" and c.check.startswith("strength")][0]
     assert ply.height == pytest.approx(0.0)
-    assert ply.demand == pytest.approx(841.93 / 1064.7, rel=5e-3)
-    symbols = {f["symbol"] for f in ply.factors}
+    assert ply.demand == pytest.approx(841.93 / 1080, rel=5e-3)
+    stab = [c for c in checks if c.part == "post"][0]
+    assert stab.demand == pytest.approx(841.93 / (1080 * 0.98580), rel=5e-3)
+    symbols = {f["symbol"] for f in ply.factors} | {f["symbol"] for f in stab.factors}
     assert {"CD", "CM", "CF", "CL", "CP", "Cfu", "Ci", "Cr"} <= symbols
     assert ply.passes
 
@@ -58,3 +61,29 @@ def test_fastener_check_capacity_by_hand():
     assert fast[0].capacity == pytest.approx(z, rel=1e-6)
     # side by side: the fasteners carry next to nothing (beam theory: no slip)
     assert fast[0].demand < 1e-3 * fast[0].capacity
+
+
+def test_built_up_column_stability_by_hand():
+    # Three hem-fir No. 2 2x6 plies nailed across, axial load only, le = 1.5 m (59.055 in).
+    # Fc* = 1300 x CF 1.1 x CM 0.8 (wet, Fc CF > 750 psi) = 1144 psi; Emin' = 470,000 x 0.9
+    # = 423,000 psi (NDS Supplement Table 4A, from memory). Across the plies (d2 = 4.5 in,
+    # NDS 15.3 Kf = 0.6 nailed): le/d = 13.123, FcE = 0.822 Emin'/(le/d)^2 = 2019.0 psi,
+    # a = 1.7649, CP = 0.6 [(1+a)/1.6 - sqrt(((1+a)/1.6)^2 - a/0.8)] = 0.50690;
+    # along the plies (d1 = 5.5 in): CP = 0.90531 > 0.50690. Fc' = 579.9 psi.
+    # P = 300 psi x 24.75 in^2: NDS 3.9.2 with no bending = (300 / 579.9)^2 = 0.26763.
+    L = 3.0
+    d = laminated_design("2x6", 3, "hem-fir", "No. 2", nail("16d"), 0.15, L, rows=2)
+    m = Model(gravity=(0.0, 0.0, 0.0))
+    post = add_laminated_post(m, (0, 0, 0), d, L, heights=[L], weight=False)
+    m.fix(post.base_node, "all")
+    P = 300 * PSI * 24.75 * INCH**2
+    m.add_load(post.node_at(L), [0, 0, -P, 0, 0, 0])
+    res = laminated_results(post, solve(m))
+    checks = check_laminated(post, res, le=1.5)
+    stab = [c for c in checks if c.part == "post"][0]
+    assert stab.demand == pytest.approx(0.26763, rel=2e-3)
+    cp = [f for f in stab.factors if f["symbol"] == "CP"][0]
+    assert cp["value"] == pytest.approx(0.50690, rel=1e-3)
+    # each ply alone, strength only: (fc / Fc*)^2 = (300 / 1144)^2 = 0.068769
+    ply = [c for c in checks if c.part == "ply 2" and c.check.startswith("strength")][0]
+    assert ply.demand == pytest.approx(0.068769, rel=2e-3)
