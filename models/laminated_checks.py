@@ -95,7 +95,6 @@ def check_laminated(post: LaminatedPost, res: LaminatedResults, *, le: float | N
     le = KE_CANTILEVER * L if le is None else float(le)
     le_note = f"le = {le:.3g} m{le_note}"
     checks: list[LaminatedCheck] = []
-    depth_stack = float(d.thicknesses.sum())
     A = np.array([p.area for p in d.plies])[:, None, None]
     t = d.thicknesses[:, None, None]
     w = np.array([p.width for p in d.plies])[:, None, None]

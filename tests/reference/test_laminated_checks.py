@@ -1,7 +1,6 @@
 """Laminated post checks against hand calculations with the NDS equations."""
 import math
 
-import numpy as np
 import pytest
 
 from fem import Model, solve
@@ -10,8 +9,6 @@ from models.laminated import add_laminated_post, laminated_design
 from models.laminated_checks import check_laminated
 from models.laminated_results import laminated_results
 from models.lumber import INCH, PSI
-
-FT_PER_M = 1 / 0.3048
 
 
 def _side_by_side_post(P):

@@ -4,7 +4,6 @@ Sources: EN 1995-1-1 Annex B (gamma method); Newmark, Siess & Viest (1951),
 partial interaction, solved here independently with scipy.integrate.solve_bvp;
 beam theory for the limits (sum of ply E I; full section by the parallel-axis rule).
 """
-import math
 
 import numpy as np
 import pytest

@@ -1,7 +1,6 @@
 """EN 1995-1-1 Annex B gamma method: limits and the two-member closed form."""
 import math
 
-import numpy as np
 import pytest
 
 from models.errors import InputError

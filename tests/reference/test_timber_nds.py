@@ -1,5 +1,4 @@
 """NDS adjustment factors and stability equations against hand calculations."""
-import math
 
 import numpy as np
 import pytest
