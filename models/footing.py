@@ -308,7 +308,12 @@ class FootingResponse:
 
     Arrays run over the embedded nodes from grade to the toe. Displacement,
     p and shear are positive along ``direction``; the rotation and the moment
-    are positive when the top leans toward ``direction``.
+    are positive when the top leans toward ``direction``. ``p_ultimate`` is
+    the largest resistance of each node's p-y curve (A p_u for API sand, p_u
+    otherwise; 0 for an uncapped modulus layer) and ``ratio`` = |p| / that
+    limit (0 where there is none); moment and shear are taken just below
+    each node. ``rotation_point_depth`` is nan when the member does not
+    cross its original line.
     """
 
     depth: np.ndarray
