@@ -97,10 +97,12 @@ def test_cantilever_tip_load_matches_newmark_siess_viest():
     tip_fe = st.u[top, 0].mean()
     assert tip_fe == pytest.approx(tip_nsv, rel=0.02)
     # fastener row forces follow the shear flow N'(x) = k slip(x) times the spacing
+    # (away from the free end, where one discrete row stands for the last half spacing)
     res = laminated_results(post, st)
-    q_nsv = sol.sol(res.fastener_heights)[1]
-    row = np.abs(res.row_force_along[0])
-    assert row.max() == pytest.approx(np.abs(q_nsv).max() * d.spacing, rel=0.05)
+    lower = res.fastener_heights < 0.75 * L
+    q_nsv = np.abs(sol.sol(res.fastener_heights[lower])[1]) * d.spacing
+    row = np.abs(res.row_force_along[0][lower])
+    assert row == pytest.approx(q_nsv, rel=0.03)
     # the couple force in the plies at the base equals the NSV N(0)
     n_base = res.N[:, 0, 0]
     assert abs(n_base[0]) == pytest.approx(abs(sol.sol(0.0)[0]), rel=0.03)
