@@ -229,7 +229,11 @@ def design_values(species: str, grade: str, size: DressedSize | str | None = Non
 
 
 def pole_values(species: str, where: str | None = None) -> DesignValues:
-    """Reference design values for treated round poles (piles table; from memory)."""
+    """Reference design values for treated round poles (piles table; from memory).
+
+    No tension value is tabulated for piles: ``Ft`` is 0 (check tension
+    another way, or give it as a user value).
+    """
     cat = _catalog()
     sp = species_name(species, where)
     if sp not in cat["poles"]:
