@@ -5,7 +5,7 @@ import numpy as np
 import scipy.sparse as sp
 
 from .errors import ModelError
-from .group import DOF_NAMES
+from .group import DOF_NAMES, evaluation_units
 
 
 class Assembler:
@@ -23,7 +23,9 @@ class Assembler:
         self.n_full = 6 * n
         stiff = np.zeros(self.n_full, dtype=bool)
         self.group_dofs = []
-        for g in model.groups:
+        #: what the solver evaluates: the model's groups, those of one kind batched
+        self.units = evaluation_units(model.groups)
+        for g in self.units:
             gd = g.global_dofs()
             self.group_dofs.append(gd)
             stiff[gd[g.stiffened()]] = True
@@ -85,7 +87,7 @@ class Assembler:
         for key, val in self.model.loads.items():
             f[key] += val
         g = self.model.gravity
-        for gd, grp in zip(self.group_dofs, self.model.groups):
+        for gd, grp in zip(self.group_dofs, self.units):
             ext = grp.external(g)
             if ext is not None:
                 f += np.bincount(gd.ravel(), weights=ext.ravel(), minlength=self.n_full)

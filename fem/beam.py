@@ -99,6 +99,7 @@ class BeamGroup(ElementGroup):
     """A group of corotational Timoshenko beams."""
 
     kind = "beam"
+    merge_fields = ("conn", "frame0", "L0", "k_local", "chord0", "weight")
 
     def __init__(self, name: str, conn: np.ndarray, coords: np.ndarray,
                  section: BeamSection, orientation) -> None:

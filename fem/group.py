@@ -36,6 +36,9 @@ class ElementGroup:
     name: str
     conn: np.ndarray
     kind: str = "element"
+    #: per-element arrays (first axis = element) that fully describe the group for
+    #: evaluation; groups of one class listing these are evaluated together
+    merge_fields: tuple[str, ...] = ()
 
     @property
     def size(self) -> int:
@@ -66,6 +69,66 @@ class ElementGroup:
     def label(self, i: int) -> str:
         """Human name of element ``i`` for messages."""
         return f"{self.kind} '{self.name}'[{i}]"
+
+    @classmethod
+    def merged(cls, groups: list["ElementGroup"]) -> "ElementGroup":
+        """One group of this class holding the elements of ``groups`` (for evaluation only).
+
+        The arrays are gathered afresh on every call, so edits to the member
+        groups between solves are seen.
+        """
+        proxy = cls.__new__(cls)
+        proxy.name = "+".join(g.name for g in groups)
+        for f in cls.merge_fields:
+            setattr(proxy, f, np.concatenate([getattr(g, f) for g in groups]))
+        return proxy
+
+
+class MergedUnit:
+    """Several groups of one class evaluated as one batch (fewer, larger numpy calls).
+
+    Quacks like an ElementGroup for the assembler and the solver.
+    """
+
+    def __init__(self, groups: list[ElementGroup]) -> None:
+        self.groups = groups
+        self.cls = type(groups[0])
+        self.sizes = [g.size for g in groups]
+
+    def _proxy(self) -> ElementGroup:
+        return self.cls.merged(self.groups)
+
+    def global_dofs(self) -> np.ndarray:
+        return np.concatenate([g.global_dofs() for g in self.groups])
+
+    def stiffened(self) -> np.ndarray:
+        return np.concatenate([g.stiffened() for g in self.groups])
+
+    def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
+        return self._proxy().evaluate(x, rot, disp, tangent)
+
+    def external(self, gravity: np.ndarray) -> np.ndarray | None:
+        parts = [g.external(gravity) for g in self.groups]
+        if all(p is None for p in parts):
+            return None
+        nde = self.groups[0].global_dofs().shape[1]
+        return np.concatenate([np.zeros((g.size, nde)) if p is None else p
+                               for g, p in zip(self.groups, parts)])
+
+
+def evaluation_units(groups: list[ElementGroup]) -> list:
+    """The groups to evaluate: those of a class with ``merge_fields`` are batched together."""
+    units, batches = [], {}
+    for g in groups:
+        if type(g).merge_fields:
+            if type(g) not in batches:
+                batches[type(g)] = []
+                units.append(batches[type(g)])
+            batches[type(g)].append(g)
+        else:
+            units.append(g)
+    return [MergedUnit(u) if isinstance(u, list) and len(u) > 1 else (u[0] if isinstance(u, list) else u)
+            for u in units]
 
 
 def translation_dofs(conn: np.ndarray) -> np.ndarray:

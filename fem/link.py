@@ -29,6 +29,7 @@ class LinkGroup(ElementGroup):
     """
 
     kind = "link"
+    merge_fields = ("conn", "k", "o1", "o2", "axes", "gap0", "chord0", "length_scale")
 
     def __init__(self, name: str, conn: np.ndarray, coords: np.ndarray, stiffness,
                  offset1=0.0, offset2=0.0, axes=np.eye(3)) -> None:
@@ -55,7 +56,8 @@ class LinkGroup(ElementGroup):
         if np.any(conn[:, 0] == conn[:, 1]):
             i = int(np.argmax(conn[:, 0] == conn[:, 1]))
             raise ModelError(f"{what} element {i}: both ends on node {conn[i, 0]}")
-        self.length_scale = max(1e-3, float(np.max(np.linalg.norm(coords, axis=1), initial=1.0)) * 1e-3)
+        scale = max(1e-3, float(np.max(np.linalg.norm(coords, axis=1), initial=1.0)) * 1e-3)
+        self.length_scale = np.full(ne, scale)  # per element, for the difference steps
 
     def global_dofs(self) -> np.ndarray:
         return all_dofs(self.conn)
@@ -115,7 +117,7 @@ class LinkGroup(ElementGroup):
             return self._forces(a, b, c, d, *consts)[0]
 
         k = central_difference_tangent(force_fn, u1, u2, r1, r2,
-                                       steps_t=np.full(self.size, 1e-7 * self.length_scale),
+                                       steps_t=1e-7 * self.length_scale,
                                        steps_r=np.full(self.size, 1e-7))
         return Evaluation(f, k)
 

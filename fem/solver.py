@@ -62,11 +62,11 @@ def _assembler(model) -> Assembler:
     return asm
 
 
-def _evaluate(model, coords, state, tangent):
+def _evaluate(model, asm, coords, state, tangent):
     x = coords + state.translation
     disp = np.zeros((model.n_nodes, 6))
     disp[:, :3] = state.translation
-    return [g.evaluate(x, state.rotation, disp, tangent) for g in model.groups]
+    return [g.evaluate(x, state.rotation, disp, tangent) for g in asm.units]
 
 
 def _apply_increment(state: State, asm: Assembler, delta_full: np.ndarray, alpha: float) -> State:
@@ -163,7 +163,7 @@ def _sites(asm, r_full, count=3) -> list[ImbalanceSite]:
 def _newton(model, asm, coords, state, f_ext, opts, check_pivots=False):
     """Iterate to equilibrium under f_ext; return (state, history) or raise _Fail."""
     history: list[float] = []
-    evals = _evaluate(model, coords, state, True)
+    evals = _evaluate(model, asm, coords, state, True)
     r_full, f_int = _residual(asm, evals, f_ext)
     for it in range(opts.max_iterations + 1):
         ref = max(np.linalg.norm(f_ext), np.linalg.norm(f_int), 1e-30)
@@ -220,7 +220,7 @@ def _line_search(model, asm, coords, state, delta_full, f_ext, r0, active):
     alpha = 1.0
     for _ in range(6 if active else 1):
         trial = _apply_increment(state, asm, delta_full, alpha)
-        evals = _evaluate(model, coords, trial, True)
+        evals = _evaluate(model, asm, coords, trial, True)
         r_full, f_int = _residual(asm, evals, f_ext)
         rn = float(np.linalg.norm(r_full[asm.free]))
         if not np.isfinite(rn):
@@ -328,7 +328,7 @@ def _set_prescribed(state: State, fixed: np.ndarray, jump: np.ndarray) -> None:
 
 
 def _fill_results(model, asm, coords, state: State) -> None:
-    evals = _evaluate(model, coords, state, False)
+    evals = _evaluate(model, asm, coords, state, False)
     f_int = asm.internal(evals)
     r_full = state.applied - f_int
     reactions = np.zeros(asm.n_full)
@@ -337,11 +337,11 @@ def _fill_results(model, asm, coords, state: State) -> None:
     disp = np.zeros((model.n_nodes, 6))
     disp[:, :3] = state.translation
     groups = {}
-    for g, gd in zip(model.groups, asm.group_dofs):
+    for g in model.groups:
         res = g.results(x, state.rotation, disp)
         groups[g.name] = res
         if g.kind == "spring":
-            reactions -= np.bincount(gd.ravel(), weights=res["force"], minlength=asm.n_full)
+            reactions -= np.bincount(g.global_dofs().ravel(), weights=res["force"], minlength=asm.n_full)
     resid = np.zeros(asm.n_full)
     resid[asm.free] = r_full[asm.free]
     state._results = {"reactions": reactions.reshape(-1, 6), "residual": resid.reshape(-1, 6),
