@@ -1,0 +1,297 @@
+"""Anchors as finite-element parts: posts, footings, guys and trees.
+
+``add_anchor`` puts one anchor of a scenario into a fem model and returns a
+handle with the node ids the line attaches to and the groups that belong to
+each part (used by checks and by the slack budget, which re-solves with a
+part made rigid).
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from fem import BeamSection, LinearLaw, Model
+from models.errors import InputError
+from models.spec import AnchorSpec, GroundSpec, PostSpec
+
+#: stiffness multiplier that stands for "rigid" in the slack budget
+RIGID = 1.0e4
+#: softwood E/G (Swedish Wood, Design of Timber Structures, Vol. 1; references.md)
+E_OVER_G = 16.0
+#: beam elements per metre of post above grade
+ELEMENTS_PER_METRE = 4
+
+
+@dataclass
+class BuiltAnchor:
+    """An anchor inside a model.
+
+    Attributes
+    ----------
+    attach
+        height above grade -> node id where something attaches (line, guy).
+    groups
+        part name ("post", "soil", "fasteners", "guy", "root") -> group names.
+    footing
+        The placed footing handle (models.footing.PlacedFooting) or None.
+    laminated
+        The laminated post handle (models.laminated.LaminatedPost) or None.
+    """
+
+    spec: AnchorSpec
+    grade_node: int
+    top_node: int
+    attach: dict[float, int]
+    groups: dict[str, list[str]] = field(default_factory=dict)
+    footing: object | None = None
+    laminated: object | None = None
+    post_section: dict | None = None
+    guy_ground_nodes: list[int] = field(default_factory=list)
+
+    def node_at(self, height: float) -> int:
+        for h, n in self.attach.items():
+            if abs(h - height) < 1e-6:
+                return n
+        raise KeyError(height)
+
+
+def _material(post: PostSpec, where: str):
+    """(E, G, reference design values or None) of a sawn or round post."""
+    from models import lumber
+
+    ov = post.overrides
+    if post.kind == "round":
+        ref = lumber.pole_values(post.species or "southern pine", where) if post.species else None
+    else:
+        size = post.section.nominal if post.section and post.section.nominal else None
+        ref = lumber.design_values(post.species, post.grade, size, where) if post.species else None
+    E = ov.E or (ref.E if ref else None)
+    if E is None:
+        raise InputError("give a species and grade from the lumber catalog or a modulus E", where)
+    G = ov.shear_modulus or E / E_OVER_G
+    return E, G, ref
+
+
+def _heights(spec: AnchorSpec, extra: list[float], top: float) -> np.ndarray:
+    """Node heights of a post: regular spacing plus every attachment height."""
+    n = max(4, int(np.ceil(top * ELEMENTS_PER_METRE)))
+    hs = np.concatenate([np.linspace(0.0, top, n + 1), np.asarray(extra, float)])
+    hs = np.unique(np.round(hs, 9))
+    return hs
+
+
+def _across(pull: np.ndarray) -> np.ndarray:
+    """Plan unit vector across the pull (local y of the post)."""
+    p = np.array([pull[0], pull[1], 0.0])
+    if np.linalg.norm(p) < 1e-12:
+        p = np.array([1.0, 0.0, 0.0])
+    p /= np.linalg.norm(p)
+    return np.array([-p[1], p[0], 0.0])
+
+
+def _solid_post(model: Model, spec: AnchorSpec, base: np.ndarray, heights: np.ndarray,
+                pull: np.ndarray, stiffen: float, name: str):
+    """Beam line of a sawn or round post; returns (node ids, section info)."""
+    post = spec.post
+    where = f"anchor '{spec.name}'.post"
+    E, G, ref = _material(post, where)
+    E, G = E * stiffen, G * stiffen
+    xyz = np.repeat(base[None, :], heights.size, axis=0)
+    xyz[:, 2] += heights
+    nodes = model.add_nodes(xyz)
+    mid = 0.5 * (heights[:-1] + heights[1:])
+    if post.kind == "round":
+        d = post.base_diameter + (post.top_diameter - post.base_diameter) * mid / post.height
+        r = 0.5 * d
+        area, inertia = np.pi * r**2, np.pi * r**4 / 4.0
+        section = BeamSection(E, G, area, inertia, inertia, 2 * inertia, 0.9 * area, 0.9 * area)
+        info = {"shape": "round", "diameter": d, "E": E / stiffen, "ref": ref}
+    else:
+        sec = post.section
+        section = BeamSection.rectangle(E, G, width_y=sec.width, depth_z=sec.depth)
+        info = {"shape": "rectangle", "width": sec.width, "depth": sec.depth, "E": E / stiffen,
+                "ref": ref}
+    model.add_beams(nodes[:-1], nodes[1:], section, orientation=_across(pull), name=name)
+    return nodes, info
+
+
+def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_heights: list[float],
+               pull: np.ndarray, rigid: frozenset[str] = frozenset()) -> BuiltAnchor:
+    """Add an anchor to ``model``.
+
+    Parameters
+    ----------
+    attach_heights
+        Heights above grade where lines attach (guy heights are added here).
+    pull
+        Plan direction of the resultant line pull (sets the post's axes and
+        the lamination stack direction).
+    rigid
+        Parts to make (nearly) rigid: any of "post", "fasteners", "soil", "guy".
+    """
+    where = f"anchor '{spec.name}'"
+    base = np.array([spec.x, spec.y, spec.grade])
+    heights_needed = sorted(set(list(attach_heights) + [g.attach_height for g in spec.guys]))
+    groups: dict[str, list[str]] = {}
+    if spec.kind == "tree":
+        built = _add_tree(model, spec, base, heights_needed, pull, rigid)
+    else:
+        post = spec.post
+        top = post.height
+        for h in heights_needed:
+            if h > top + 1e-9:
+                raise InputError(f"attachment at {h:.3f} m is above the post top ({top:.3f} m)", where)
+        stiffen = RIGID if "post" in rigid else 1.0
+        lam = None
+        if post.kind == "laminated":
+            from models.laminated import add_laminated_post, design_from_post
+            design = design_from_post(post, f"{where}.post")
+            if stiffen != 1.0:
+                design = _stiffened_design(design, stiffen)
+            slip_scale = RIGID if "fasteners" in rigid else 1.0
+            lam = add_laminated_post(model, base, design, top, heights=heights_needed + [top],
+                                     pull=pull, slip="service", name=f"{spec.name}.post",
+                                     attach_slip=None if slip_scale == 1.0 else None)
+            if slip_scale != 1.0:
+                _stiffen_links(model, lam.mesh.link_group, slip_scale)
+            grade_node = lam.base_node
+            attach = {h: lam.node_at(h) for h in heights_needed}
+            top_node = lam.node_at(top)
+            groups["post"] = list(lam.mesh.beam_groups)
+            groups["fasteners"] = [lam.mesh.link_group]
+            info = {"shape": "laminated", "E": design.plies[0].E}
+        else:
+            hs = _heights(spec, heights_needed, top)
+            nodes, info = _solid_post(model, spec, base, hs, pull, stiffen, f"{spec.name}.post")
+            grade_node = int(nodes[0])
+            attach = {h: int(nodes[np.argmin(np.abs(hs - h))]) for h in heights_needed}
+            top_node = int(nodes[-1])
+            groups["post"] = [f"{spec.name}.post"]
+        built = BuiltAnchor(spec, grade_node, top_node, attach, groups, laminated=lam,
+                            post_section=info)
+        _add_footing(model, built, spec, ground, rigid)
+    _add_guys(model, built, spec, rigid)
+    if spec.brace is not None:
+        raise InputError("braces (kicker, H-brace) are not modelled yet; remove the [brace] table "
+                         "or model the brace's effect with a guy", f"{where}.brace")
+    return built
+
+
+def _stiffened_design(design, factor: float):
+    from dataclasses import replace
+    plies = tuple(replace(p, E=p.E * factor) for p in design.plies)
+    return replace(design, plies=plies)
+
+
+def _stiffen_links(model: Model, group_name: str, factor: float) -> None:
+    g = model.group(group_name)
+    g.k[:, 1:3] *= factor  # slip along the joint (across, along the post); contact stays
+
+
+def _post_width(spec: AnchorSpec) -> float:
+    along, across = spec.post.outline
+    return max(along, across)
+
+
+def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: GroundSpec,
+                 rigid: frozenset[str]) -> None:
+    fs = spec.footing
+    where = f"anchor '{spec.name}'.footing"
+    node = built.grade_node
+    if fs is None or fs.kind == "fixed" or "soil" in rigid:
+        if fs is not None and fs.kind == "fixed" and fs.base_spring and "soil" not in rigid:
+            model.fix(node, "xyz")
+            model.fix(node, "rz")
+            for d in ("rx", "ry"):
+                model.add_springs(node, d, LinearLaw(fs.base_spring), name=f"{spec.name}.base_{d}")
+            built.groups["soil"] = [f"{spec.name}.base_rx", f"{spec.name}.base_ry"]
+        else:
+            model.fix(node, "all")
+        return
+    from models.footing import Footing, add_footing, concrete_pier_section
+    from models.soil import profile_from_specs
+
+    layers = fs.soil if fs.soil is not None else ground.soil
+    if not layers:
+        raise InputError("an embedded footing or pier needs soil layers ([[ground.soil]] or "
+                         "footing.soil)", where)
+    profile = profile_from_specs(list(layers), ground.water_table, where=f"{where}.soil")
+    post_width = _post_width(spec)
+    if fs.kind == "pier":
+        footing = Footing(depth=fs.depth, width=fs.pier_diameter,
+                          section=concrete_pier_section(fs.pier_diameter), kind="pier",
+                          post_width=post_width, where=where)
+    else:
+        info = built.post_section or {}
+        E = info.get("E", 10e9)
+        along, across = spec.post.outline
+        if spec.post.kind == "round":
+            section = BeamSection.circle(E, E / E_OVER_G, spec.post.base_diameter)
+        else:
+            section = BeamSection.rectangle(E, E / E_OVER_G, across, along)
+        footing = Footing(depth=fs.depth, width=min(along, across) if spec.post.kind != "round"
+                          else spec.post.base_diameter, section=section, kind="direct", where=where)
+    placed = add_footing(model, node, footing, profile, name=f"{spec.name}.footing")
+    built.footing = placed
+    built.groups["soil"] = list(placed.spring_groups) + list(placed.extra_groups)
+    built.groups["footing_member"] = [placed.member_group]
+
+
+def _add_guys(model: Model, built: BuiltAnchor, spec: AnchorSpec, rigid: frozenset[str]) -> None:
+    if not spec.guys:
+        return
+    names = []
+    for i, guy in enumerate(spec.guys):
+        top = built.node_at(guy.attach_height)
+        ground = model.add_node(guy.ground_point)
+        chord = np.linalg.norm(np.asarray(guy.ground_point) - model.coords[top])
+        ea = guy.rope.EA * (RIGID if "guy" in rigid else 1.0)
+        l0 = chord / (1.0 + guy.pretension / guy.rope.EA)
+        name = f"{spec.name}.guy{i + 1}"
+        model.add_cables([top], [ground], ea, l0, weight=0.0, name=name)
+        if guy.anchor_fixed or guy.anchor_stiffness is None or "guy" in rigid:
+            model.fix(ground, "xyz")
+        else:
+            model.add_springs(np.array([ground] * 3), [0, 1, 2], LinearLaw(guy.anchor_stiffness),
+                              name=f"{name}.ground")
+            names.append(f"{name}.ground")
+        names.append(name)
+        built.guy_ground_nodes.append(ground)
+    built.groups["guy"] = names
+
+
+def _add_tree(model: Model, spec: AnchorSpec, base: np.ndarray, heights: list[float],
+              pull: np.ndarray, rigid: frozenset[str]) -> BuiltAnchor:
+    tree = spec.tree
+    where = f"anchor '{spec.name}'.tree"
+    top = max(heights + [tree.attachment_height])
+    hs = _heights(spec, heights, top)
+    xyz = np.repeat(base[None, :], hs.size, axis=0)
+    xyz[:, 2] += hs
+    nodes = model.add_nodes(xyz)
+    mid = 0.5 * (hs[:-1] + hs[1:])
+    slope = (tree.diameter_at_attachment - tree.diameter_at_grade) / tree.attachment_height
+    d = np.maximum(tree.diameter_at_grade + slope * mid, 0.05)
+    E = tree.E_green * (RIGID if "post" in rigid else 1.0)
+    r = 0.5 * d
+    area, inertia = np.pi * r**2, np.pi * r**4 / 4.0
+    model.add_beams(nodes[:-1], nodes[1:], BeamSection(E, E / E_OVER_G, area, inertia, inertia,
+                                                        2 * inertia, 0.9 * area, 0.9 * area),
+                    orientation=_across(pull), name=f"{spec.name}.post")
+    base_node = int(nodes[0])
+    model.fix(base_node, "xyz")
+    model.fix(base_node, "rz")
+    if tree.root_plate_stiffness is None or tree.root_plate_stiffness <= 0:
+        raise InputError("a tree needs a root-plate rotational stiffness", where)
+    groups = {"post": [f"{spec.name}.post"]}
+    if "soil" in rigid:
+        model.fix(base_node, "rxyz")
+    else:
+        for dname in ("rx", "ry"):
+            model.add_springs(base_node, dname, LinearLaw(tree.root_plate_stiffness),
+                              name=f"{spec.name}.root_{dname}")
+        groups["soil"] = [f"{spec.name}.root_rx", f"{spec.name}.root_ry"]
+    attach = {h: int(nodes[np.argmin(np.abs(hs - h))]) for h in heights}
+    return BuiltAnchor(spec, base_node, int(nodes[-1]), attach, groups,
+                       post_section={"shape": "round", "diameter": d, "E": tree.E_green, "ref": None})
