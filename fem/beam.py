@@ -179,7 +179,8 @@ class BeamGroup(ElementGroup):
         th2 = logmap(rrt @ t2)
         dl = np.zeros((u1.shape[0], 12))
         dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, elong, th2
-        fl = np.einsum("nij,nj->ni", k_local, dl)
+        reps = u1.shape[0] // k_local.shape[0]  # a batch of stacked copies shares k_local
+        fl = np.einsum("nij,rnj->rni", k_local, dl.reshape(reps, -1, 12)).reshape(-1, 12)
         n_ax, m1, m2 = fl[:, 6], fl[:, 3:6], fl[:, 9:12]
         # spin of the rigid frame, local components, as rows over the 12 DOFs
         ql1 = np.einsum("ni,ni->n", q, e1)
@@ -208,17 +209,12 @@ class BeamGroup(ElementGroup):
         f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
         if not tangent:
             return Evaluation(f, None)
-        reps = 24
-        frame0 = np.tile(self.frame0, (reps, 1, 1))
-        l0 = np.tile(self.L0, reps)
-        kl = np.tile(self.k_local, (reps, 1, 1))
-        c0 = np.tile(self.chord0, (reps, 1))
+        def force_fn(a1, a2, b1, b2, reps):
+            return self._core(a1, a2, b1, b2, np.tile(self.frame0, (reps, 1, 1)), np.tile(self.L0, reps),
+                              self.k_local, np.tile(self.chord0, (reps, 1)))[0]
 
-        def force_fn(a1, a2, b1, b2):
-            return self._core(a1, a2, b1, b2, frame0, l0, kl, c0)[0]
-
-        k = central_difference_tangent(force_fn, u1, u2, r1, r2,
-                                       steps_t=1e-7 * self.L0, steps_r=np.full(self.size, 1e-7))
+        k = central_difference_tangent(force_fn, u1, u2, r1, r2, steps_t=1e-7 * self.L0,
+                                       steps_r=np.full(self.size, 1e-7), translation_invariant=True)
         return Evaluation(f, k)
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:

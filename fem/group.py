@@ -143,41 +143,50 @@ def all_dofs(conn: np.ndarray) -> np.ndarray:
     return base.reshape(conn.shape[0], -1)
 
 
-def central_difference_tangent(force_fn, x1, x2, r1, r2, steps_t, steps_r) -> np.ndarray:
+def central_difference_tangent(force_fn, x1, x2, r1, r2, steps_t, steps_r,
+                               translation_invariant: bool = False) -> np.ndarray:
     """Tangent of a two-node element force by central differences, vectorised.
 
-    ``force_fn(x1, x2, r1, r2)`` returns (ne, 12) forces for positions (ne, 3)
-    and rotation matrices (ne, 3, 3). Translations are perturbed by
-    ``steps_t`` (ne,) and rotations by left spins of ``steps_r`` (ne,); all 24
-    perturbed states are evaluated in one batched call.
+    ``force_fn(x1, x2, r1, r2, reps)`` returns (reps * ne, 12) forces for
+    ``reps`` stacked copies of the (ne,) elements: translations (reps * ne, 3)
+    and rotation matrices (reps * ne, 3, 3). Translations are perturbed by
+    ``steps_t`` (ne,) and rotations by left spins of ``steps_r`` (ne,); all
+    perturbed states are evaluated in one batched call. When the force
+    depends on the translations only through x2 - x1 (``translation_invariant``)
+    the node-1 translation columns are the negated node-2 ones, and 18 states
+    are evaluated instead of 24.
     """
     from .rotation import expmap
 
     ne = x1.shape[0]
     eye = np.eye(3)
-    bx1 = np.repeat(x1[None], 24, axis=0)
-    bx2 = np.repeat(x2[None], 24, axis=0)
-    br1 = np.repeat(r1[None], 24, axis=0)
-    br2 = np.repeat(r2[None], 24, axis=0)
-    for col in range(12):
+    first = 6 if translation_invariant else 0
+    cols = list(range(first, 12)) if not translation_invariant else [6, 7, 8, 3, 4, 5, 9, 10, 11]
+    reps = 2 * len(cols)
+    bx1 = np.repeat(x1[None], reps, axis=0)
+    bx2 = np.repeat(x2[None], reps, axis=0)
+    br1 = np.repeat(r1[None], reps, axis=0)
+    br2 = np.repeat(r2[None], reps, axis=0)
+    uniform_r = bool(np.all(steps_r == steps_r[0])) if ne else True
+    for j, col in enumerate(cols):
         node, kind, axis = col // 6, (col % 6) // 3, col % 3
-        for sgn, row in ((1.0, 2 * col), (-1.0, 2 * col + 1)):
+        for sgn, row in ((1.0, 2 * j), (-1.0, 2 * j + 1)):
             if kind == 0:
-                step = sgn * steps_t[:, None] * eye[axis][None, :]
-                if node == 0:
-                    bx1[row] += step
-                else:
-                    bx2[row] += step
+                target = bx1 if node == 0 else bx2
+                target[row, :, axis] += sgn * steps_t
             else:
-                spin = expmap(sgn * steps_r[:, None] * eye[axis][None, :])
-                if node == 0:
-                    br1[row] = spin @ br1[row]
+                if uniform_r:
+                    spin = expmap(sgn * steps_r[0] * eye[axis])
                 else:
-                    br2[row] = spin @ br2[row]
+                    spin = expmap(sgn * steps_r[:, None] * eye[axis][None, :])
+                target = br1 if node == 0 else br2
+                target[row] = spin @ target[row]
     f = force_fn(bx1.reshape(-1, 3), bx2.reshape(-1, 3),
-                 br1.reshape(-1, 3, 3), br2.reshape(-1, 3, 3)).reshape(24, ne, 12)
-    h = np.empty((12, ne))
-    h[[0, 1, 2, 6, 7, 8]] = steps_t
-    h[[3, 4, 5, 9, 10, 11]] = steps_r
-    k = (f[0::2] - f[1::2]) / (2.0 * h[:, :, None])  # (12 cols, ne, 12 rows)
-    return np.transpose(k, (1, 2, 0))
+                 br1.reshape(-1, 3, 3), br2.reshape(-1, 3, 3), reps).reshape(reps, ne, 12)
+    h = np.where(np.array([(c % 6) < 3 for c in cols])[:, None], steps_t[None, :], steps_r[None, :])
+    kc = (f[0::2] - f[1::2]) / (2.0 * h[:, :, None])  # (columns, ne, 12 rows)
+    k = np.empty((ne, 12, 12))
+    k[:, :, cols] = np.transpose(kc, (1, 2, 0))
+    if translation_invariant:
+        k[:, :, 0:3] = -k[:, :, 6:9]
+    return k

@@ -111,14 +111,12 @@ class LinkGroup(ElementGroup):
         f = self._forces(u1, u2, r1, r2, *self._consts())[0]
         if not tangent:
             return Evaluation(f, None)
-        consts = self._consts(24)
-
-        def force_fn(a, b, c, d):
-            return self._forces(a, b, c, d, *consts)[0]
+        def force_fn(a, b, c, d, reps):
+            return self._forces(a, b, c, d, *self._consts(reps))[0]
 
         k = central_difference_tangent(force_fn, u1, u2, r1, r2,
                                        steps_t=1e-7 * self.length_scale,
-                                       steps_r=np.full(self.size, 1e-7))
+                                       steps_r=np.full(self.size, 1e-7), translation_invariant=True)
         return Evaluation(f, k)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
