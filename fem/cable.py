@@ -26,6 +26,7 @@ class CableGroup(ElementGroup):
     """
 
     kind = "cable"
+    merge_fields = ("conn", "EA", "L0", "weight", "alpha", "dT", "chord0")
 
     def __init__(self, name: str, conn: np.ndarray, coords: np.ndarray, EA, L0,
                  weight=0.0, alpha=0.0, dT=0.0) -> None:
