@@ -11,6 +11,7 @@ from __future__ import annotations
 import numpy as np
 
 import fem
+from test_engine_balance import assert_balance, lumped_weight, nodal_loads
 from test_engine_beams import B, E, G, H, L, cantilever
 from test_engine_cables import _catenary_model
 from test_engine_foundation import EI, TanhLaw, winkler_beam
@@ -35,17 +36,21 @@ def deep() -> fem.SolverOptions:
 
 
 def test_quadratic_convergence_cable_catenary():
-    m, _ = _catenary_model(40.0, 4.0, np.hypot(40.0, 4.0) * 1.004, 15.0, 60)
+    L0 = np.hypot(40.0, 4.0) * 1.004
+    m, _ = _catenary_model(40.0, 4.0, L0, 15.0, 60)
     s = fem.solve(m, options=deep())
     assert_quadratic(s.history)
+    assert_balance(m, s, lumped_weight(m.n_nodes, m.group("cables").conn, 15.0, L0 / 60))
 
 
 def test_quadratic_convergence_beam_large_rotation():
     sec = fem.BeamSection.rectangle(E, G, B, H)
     m, ids = cantilever(32, sec)
-    m.add_load(ids[-1], [0, 0, 0, 0, -0.5 * np.pi * E * B * H**3 / 12 / L, 0])  # quarter turn
+    load = [0, 0, 0, 0, -0.5 * np.pi * E * B * H**3 / 12 / L, 0]  # a quarter turn
+    m.add_load(ids[-1], load)
     s = fem.solve(m, steps=2, options=deep())
     assert_quadratic(s.history)
+    assert_balance(m, s, nodal_loads(m.n_nodes, [(ids[-1], load)]))
 
 
 def test_quadratic_convergence_beam_on_nonlinear_springs():
@@ -55,3 +60,4 @@ def test_quadratic_convergence_beam_on_nonlinear_springs():
     m.add_load(ids[0], [0, 0, 2.5e4])
     s = fem.solve(m, steps=2, options=deep())
     assert_quadratic(s.history)
+    assert_balance(m, s, nodal_loads(m.n_nodes, [(ids[0], [0, 0, 2.5e4])]))
