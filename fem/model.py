@@ -163,6 +163,8 @@ class Model:
         b = self._nodes(n2, what).ravel()
         if a.shape != b.shape:
             raise ModelError(f"{what}: {a.size} start nodes but {b.size} end nodes")
+        if a.size == 0:
+            raise ModelError(f"{what}: no elements given")
         return np.stack([a, b], axis=1)
 
     def add_beams(self, n1, n2, section: BeamSection, orientation=(0.0, 0.0, 1.0),
@@ -173,6 +175,8 @@ class Model:
         not parallel to the beam; it sets local y.
         """
         conn = self._conn(n1, n2, f"beam group '{name}'")
+        if not isinstance(section, BeamSection):
+            raise ModelError(f"beam group '{name}': section must be a BeamSection, got {type(section).__name__}")
         return self._add(BeamGroup(name, conn, self.coords, section, orientation))
 
     def add_cables(self, n1, n2, EA, L0, weight=0.0, alpha=0.0, dT=0.0,
@@ -184,6 +188,8 @@ class Model:
     def add_springs(self, nodes, dof, law: SpringLaw, one_sided=0, name: str = "springs") -> SpringGroup:
         """Add node-to-ground springs on DOF ``dof`` (index or name) of ``nodes``."""
         ids = self._nodes(nodes, f"spring group '{name}'").ravel()
+        if ids.size == 0:
+            raise ModelError(f"spring group '{name}': no nodes given")
         d = parse_dofs(dof)
         if len(d) != 1 and len(d) != ids.size:
             raise ModelError(f"spring group '{name}': give one DOF for all springs or one per node "
