@@ -211,6 +211,18 @@ def test_load_or_prescribed_value_on_unconnected_dof():
         fem.solve(m)
 
 
+def test_empty_groups_and_wrong_section_type():
+    m = three_nodes()
+    with raises(r"beam group 'beams': no elements given"):
+        m.add_beams([], [], SEC)
+    with raises(r"cable group 'cables': no elements given"):
+        m.add_cables([], [], 1e6, 1.0)
+    with raises(r"spring group 'springs': no nodes given"):
+        m.add_springs([], "ux", fem.LinearLaw(1.0))
+    with raises(r"section must be a BeamSection, got dict"):
+        m.add_beams([0], [1], {"E": 1e9})
+
+
 def test_solve_arguments():
     m = three_nodes()
     with raises("steps must be at least 1"):
