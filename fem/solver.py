@@ -21,6 +21,9 @@ class SolverOptions:
 
     force_tol: residual norm relative to the applied-load (or reaction) norm.
     disp_tol: last correction norm relative to the displacement norm.
+    A state whose Newton correction is at machine precision is also accepted
+    when its residual is within ROUNDOFF_ACCEPT x force_tol (the round-off
+    floor of stiff, finely meshed beams can lie above a very tight force_tol).
     """
 
     force_tol: float = 1e-8
