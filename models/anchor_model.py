@@ -15,8 +15,9 @@ from fem import BeamSection, LinearLaw, Model
 from models.errors import InputError
 from models.spec import AnchorSpec, GroundSpec, PostSpec
 
-#: stiffness multiplier that stands for "rigid" in the slack budget
-RIGID = 1.0e4
+#: stiffness multiplier that stands for "rigid" in the slack budget (a part made 100x
+#: stiffer keeps 1 % of its give; larger factors spoil the conditioning of laminated posts)
+RIGID = 100.0
 #: softwood E/G (Swedish Wood, Design of Timber Structures, Vol. 1; references.md)
 E_OVER_G = 16.0
 #: beam elements per metre of post above grade
@@ -48,6 +49,8 @@ class BuiltAnchor:
     laminated: object | None = None
     post_section: dict | None = None
     guy_ground_nodes: list[int] = field(default_factory=list)
+    guys: list = field(default_factory=list)      # models.guys.BuiltGuy handles
+    brace: object | None = None                   # models.braces.BuiltKicker / BuiltHBrace
 
     def node_at(self, height: float) -> int:
         for h, n in self.attach.items():
@@ -173,8 +176,8 @@ def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_height
         _add_footing(model, built, spec, ground, rigid)
     _add_guys(model, built, spec, rigid)
     if spec.brace is not None:
-        raise InputError("braces (kicker, H-brace) are not modelled yet; remove the [brace] table "
-                         "or model the brace's effect with a guy", f"{where}.brace")
+        from models.braces import add_brace
+        add_brace(model, built, spec, ground, pull, rigid)
     return built
 
 
@@ -239,59 +242,11 @@ def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: Gro
 
 
 def _add_guys(model: Model, built: BuiltAnchor, spec: AnchorSpec, rigid: frozenset[str]) -> None:
-    if not spec.guys:
-        return
-    names = []
-    for i, guy in enumerate(spec.guys):
-        top = built.node_at(guy.attach_height)
-        ground = model.add_node(guy.ground_point)
-        chord = np.linalg.norm(np.asarray(guy.ground_point) - model.coords[top])
-        ea = guy.rope.EA * (RIGID if "guy" in rigid else 1.0)
-        l0 = chord / (1.0 + guy.pretension / guy.rope.EA)
-        name = f"{spec.name}.guy{i + 1}"
-        model.add_cables([top], [ground], ea, l0, weight=0.0, name=name)
-        if guy.anchor_fixed or guy.anchor_stiffness is None or "guy" in rigid:
-            model.fix(ground, "xyz")
-        else:
-            model.add_springs(np.array([ground] * 3), [0, 1, 2], LinearLaw(guy.anchor_stiffness),
-                              name=f"{name}.ground")
-            names.append(f"{name}.ground")
-        names.append(name)
-        built.guy_ground_nodes.append(ground)
-    built.groups["guy"] = names
+    from models.guys import add_guys
+    add_guys(model, built, spec, rigid)
 
 
 def _add_tree(model: Model, spec: AnchorSpec, base: np.ndarray, heights: list[float],
               pull: np.ndarray, rigid: frozenset[str]) -> BuiltAnchor:
-    tree = spec.tree
-    where = f"anchor '{spec.name}'.tree"
-    top = max(heights + [tree.attachment_height])
-    hs = _heights(spec, heights, top)
-    xyz = np.repeat(base[None, :], hs.size, axis=0)
-    xyz[:, 2] += hs
-    nodes = model.add_nodes(xyz)
-    mid = 0.5 * (hs[:-1] + hs[1:])
-    slope = (tree.diameter_at_attachment - tree.diameter_at_grade) / tree.attachment_height
-    d = np.maximum(tree.diameter_at_grade + slope * mid, 0.05)
-    E = tree.E_green * (RIGID if "post" in rigid else 1.0)
-    r = 0.5 * d
-    area, inertia = np.pi * r**2, np.pi * r**4 / 4.0
-    model.add_beams(nodes[:-1], nodes[1:], BeamSection(E, E / E_OVER_G, area, inertia, inertia,
-                                                        2 * inertia, 0.9 * area, 0.9 * area),
-                    orientation=_across(pull), name=f"{spec.name}.post")
-    base_node = int(nodes[0])
-    model.fix(base_node, "xyz")
-    model.fix(base_node, "rz")
-    if tree.root_plate_stiffness is None or tree.root_plate_stiffness <= 0:
-        raise InputError("a tree needs a root-plate rotational stiffness", where)
-    groups = {"post": [f"{spec.name}.post"]}
-    if "soil" in rigid:
-        model.fix(base_node, "rxyz")
-    else:
-        for dname in ("rx", "ry"):
-            model.add_springs(base_node, dname, LinearLaw(tree.root_plate_stiffness),
-                              name=f"{spec.name}.root_{dname}")
-        groups["soil"] = [f"{spec.name}.root_rx", f"{spec.name}.root_ry"]
-    attach = {h: int(nodes[np.argmin(np.abs(hs - h))]) for h in heights}
-    return BuiltAnchor(spec, base_node, int(nodes[-1]), attach, groups,
-                       post_section={"shape": "round", "diameter": d, "E": tree.E_green, "ref": None})
+    from models.tree import add_tree
+    return add_tree(model, spec, base, heights, pull, rigid)
