@@ -13,15 +13,11 @@ import sys
 
 import numpy as np
 
-CAUTIONS = (
-    "CAUTION: results are for preliminary design only. People ride these systems.\n"
-    "Have a qualified, licensed engineer review the design; follow local codes, the\n"
-    "applicable standards for aerial adventure courses, the rope and hardware makers'\n"
-    "ratings, and inspect and proof-load the installation before anyone rides."
-)
+
 
 
 def main(argv: list[str]) -> int:
+    from models.cautions import CAUTION_TEXT
     from models.errors import InputError
     from models.footing import footing_response
     from models.installed import end_tensions, install, measured_sag
@@ -55,7 +51,7 @@ def main(argv: list[str]) -> int:
                      f"largest soil p/p_u {resp.max_ratio:.2f}")
         print(text)
     print()
-    print(CAUTIONS)
+    print("CAUTION: " + CAUTION_TEXT)
     return 0
 
 

@@ -55,3 +55,41 @@ def validate(file: str, units: str | None) -> None:
         _fail(exc)
     click.echo(summary_text(scenario, units or scenario.settings.units))
     click.echo("valid")
+
+
+@main.command("run")
+@click.argument("file", type=click.Path(dir_okay=False))
+@click.option("--out", "out_dir", type=click.Path(file_okay=False), default=None,
+              help="Results folder (default: <scenario>_results next to the scenario).")
+@click.option("--units", type=click.Choice(["us", "si"]), default=None,
+              help="Units of the terminal summary (default: the scenario's preference).")
+@click.option("--stations", type=click.IntRange(2, 2000), default=None,
+              help="Rider stations along the line (default: the scenario's).")
+def run(file: str, out_dir: str | None, units: str | None, stations: int | None) -> None:
+    """Hang the line, move the riders along it, and check every part."""
+    from pathlib import Path
+
+    from fem.errors import FemError
+    from models.errors import InputError
+    from models.outputs import write_results
+    from models.run import analyse
+    from models.scenario import load_scenario
+    from models.terminal import summary_lines
+
+    path = Path(file)
+    try:
+        scenario = load_scenario(path)
+        units = units or scenario.settings.units
+        if scenario.rider is None:
+            raise InputError("a [rider] table is needed to run the line", "rider")
+        count = stations or scenario.rider.stations
+        passes = 4 if max(scenario.settings.use_temperatures + (scenario.settings.install_temperature,)) \
+            > scenario.settings.install_temperature + 0.05 else 3
+        with click.progressbar(length=passes * count, label="rider stations", file=sys.stderr) as bar:
+            result = analyse(scenario, stations=count, progress=lambda label, n: bar.update(n))
+        target = Path(out_dir) if out_dir else path.with_name(f"{path.stem}_results")
+        written = write_results(result, target, str(path), units)
+    except (InputError, FemError, OSError) as exc:
+        _fail(exc)
+        return
+    click.echo("\n".join(summary_lines(result, written, units)))

@@ -3,14 +3,10 @@ from __future__ import annotations
 
 import math
 
+from models.cautions import CAUTION_TEXT as CAUTIONS
 from models.scenario_checks import chord_length, plan_span
 from models.spec import AnchorSpec, FootingSpec, LineSpec, PostSpec, Scenario
 from models.units import show
-
-CAUTIONS = (
-    "Preliminary design only. People ride this: have a qualified (licensed) engineer "
-    "review it; follow local codes, the applicable standards for aerial adventure "
-    "courses, the rope and hardware makers' ratings, inspection and proof loading.")
 
 
 def _post(post: PostSpec, units: str) -> str:

@@ -129,6 +129,8 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
     result = Pass(label, weight, temperature)
     state = installed
     line.rider_s = None
+    cable = system.model.group(line.group)
+    cable.L0[:] = line.segment_lengths(None)  # the installed state's even division
     first = True
     for s in stations_s:
         warm = place_rider(system, line, state, float(s), weight)
@@ -145,4 +147,6 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
         if progress is not None:
             progress()
     system.model.set_load(line.rider_node, [0.0, 0.0, 0.0])
+    cable.L0[:] = line.segment_lengths(None)
+    line.rider_s = None
     return result

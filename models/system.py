@@ -125,14 +125,14 @@ def _add_line(model: Model, line: LineSpec, n1: int, n2: int, p1: np.ndarray, p2
     k = n // 2
     span = float(np.linalg.norm((p2 - p1)[:2]))
     drop = float(p1[2] - p2[2])
-    cat = solve_catenary(span, drop, L0, rope.weight_per_length, rope.EA)
+    ea = rope.EA * (RIGID if "cable" in rigid else 1.0)
+    cat = solve_catenary(span, drop, L0, rope.weight_per_length, ea)
     s = np.linspace(0.0, L0, n + 1)[1:-1]
     plan = (p2 - p1)[:2] / span
     xs, zs = cat.x(s), cat.z_down(s)
     inner = np.column_stack([p1[0] + plan[0] * xs, p1[1] + plan[1] * xs, p1[2] - zs])
     ids = model.add_nodes(inner)
     nodes = np.concatenate([[n1], ids, [n2]])
-    ea = rope.EA * (RIGID if "cable" in rigid else 1.0)
     name = f"line.{line.name}"
     model.add_cables(nodes[:-1], nodes[1:], ea, np.full(n, L0 / n), weight=rope.weight_per_length,
                      alpha=rope.alpha, dT=d_t, name=name)

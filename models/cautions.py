@@ -1,0 +1,14 @@
+"""The cautions every summary and report shows. People ride these systems."""
+from __future__ import annotations
+
+CAUTIONS: tuple[str, ...] = (
+    "Results are for preliminary design only.",
+    "People ride this: a qualified (licensed) engineer must review the design before use.",
+    "Follow local codes and the applicable standards for aerial adventure courses.",
+    "Use the rope and hardware makers' ratings; catalog values marked 'from memory' must be "
+    "checked against published tables.",
+    "Inspect the installation and proof-load it before anyone rides, and keep inspecting it.",
+)
+
+#: the cautions as one paragraph
+CAUTION_TEXT = " ".join(CAUTIONS)

@@ -1,0 +1,158 @@
+"""The main job: hang the line, step the riders, work out the ride, the slack
+budget and the checks. Writing the results is models.outputs' job."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Callable
+
+import numpy as np
+
+from fem import State, solve
+from fem.errors import FemError
+from models.errors import InputError
+from models.installed import install
+from models.ride import Clearance, RideResult, feet_clearance, ride_speed
+from models.spec import Scenario
+from models.stations import Pass, run_pass
+from models.system import System
+from models.units import STANDARD_GRAVITY
+
+#: smallest clearance of the rider's feet over the ground: a judgement of ours
+MIN_CLEARANCE = 0.15
+#: largest arrival speed at the far end: a judgement of ours for a line without a
+#: braking system; set your own with the brake you use
+MAX_ARRIVAL_SPEED = 5.0
+
+
+@dataclass
+class RunResult:
+    """Everything `spanstay run` computes (SI)."""
+
+    scenario: Scenario
+    system: System
+    installed: State
+    lengths: dict[str, float]
+    stations_s: np.ndarray
+    passes: dict[str, Pass]
+    rides: dict[str, RideResult] = field(default_factory=dict)
+    clearance: Clearance | None = None
+    slack: object | None = None
+    checks: list = field(default_factory=list)
+
+
+def station_coordinates(system: System, state: State, line_name: str, start_offset: float,
+                        stop_offset: float, count: int) -> np.ndarray:
+    """Unstressed arc coordinates of ``count`` stations between the offsets.
+
+    Offsets are horizontal distances from the start and end attachments,
+    mapped to arc coordinates on the installed shape.
+    """
+    line = system.lines[line_name]
+    pos = system.model.coords[line.nodes] + state.translation[line.nodes]
+    along = line.along(pos)
+    s_nodes = line.arc_coordinates(None)
+    span = along[-1]
+    if start_offset + stop_offset >= span:
+        raise InputError(f"the ride's start and stop offsets ({start_offset:.2f} m + "
+                         f"{stop_offset:.2f} m) leave no ride on a {span:.2f} m span", "rider")
+    s0 = float(np.interp(start_offset, along, s_nodes))
+    s1 = float(np.interp(span - stop_offset, along, s_nodes))
+    return np.linspace(s0, s1, max(int(count), 2))
+
+
+def _at_temperature(system: System, installed: State, d_t: float) -> State:
+    """The installed state with every line's cable at a temperature change ``d_t``."""
+    for line in system.lines.values():
+        system.model.group(line.group).dT[:] = d_t
+    if d_t == 0.0:
+        return installed
+    try:
+        return solve(system.model, state=installed, steps=2)
+    except FemError as exc:
+        raise InputError(f"no installed equilibrium at a temperature change of {d_t:+.1f} K: {exc}",
+                         "settings.use_temperatures") from None
+
+
+def analyse(scenario: Scenario, stations: int | None = None,
+            progress: Callable[[str, int], None] | None = None,
+            slack_budget: bool = True) -> RunResult:
+    """Run the whole analysis of a scenario with a rider.
+
+    ``progress(label, count)`` is called once per solved station.
+    """
+    rider = scenario.rider
+    if rider is None:
+        raise InputError("a [rider] table is needed to run the line", "rider")
+    system, installed, lengths = install(scenario)
+    count = stations or rider.stations
+    s = station_coordinates(system, installed, rider.line, rider.start_offset, rider.stop_offset, count)
+    line = system.lines[rider.line]
+    t_inst = scenario.settings.install_temperature
+    temps = list(scenario.settings.use_temperatures) + [t_inst]
+    t_cold, t_hot = min(temps), max(temps)
+    plan = [("ride_light", rider.lightest, t_inst, False),
+            ("ride_heavy", rider.heaviest, t_inst, True),
+            ("design", rider.heaviest * rider.dynamic_factor, t_cold, True)]
+    if t_hot > t_inst + 0.05:
+        plan.append(("hot", rider.heaviest, t_hot, False))
+    passes: dict[str, Pass] = {}
+    for label, weight, temp, keep in plan:
+        start = _at_temperature(system, installed, temp - t_inst)
+        tick = (lambda lab=label: progress(lab, 1)) if progress else None
+        passes[label] = run_pass(system, start, line, s, weight, label, temp, keep_states=keep,
+                                 progress=tick)
+    _at_temperature(system, installed, 0.0)
+    result = RunResult(scenario, system, installed, lengths, s, passes)
+    _ride(result)
+    if slack_budget:
+        from models.slack_budget import slack_budget as budget
+        result.slack = budget(result)
+    result.checks = _checks(result)
+    return result
+
+
+def _profile(p: Pass) -> tuple[np.ndarray, np.ndarray]:
+    along = np.array([st.along for st in p.stations])
+    z = np.array([st.rider[2] for st in p.stations])
+    return along, z
+
+
+def _ride(result: RunResult) -> None:
+    rider = result.scenario.rider
+    ground = result.scenario.ground
+    gd = np.array([g[0] for g in ground.profile])
+    gz = np.array([g[1] for g in ground.profile])
+    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
+        p = result.passes[label]
+        if len(p.stations) < 2:
+            continue
+        along, z = _profile(p)
+        mass = p.weight / STANDARD_GRAVITY
+        result.rides[key] = ride_speed(along, z, mass, rolling_resistance=rider.rolling_resistance,
+                                       drag_area=rider.drag_area, start_speed=rider.start_speed,
+                                       air_density=rider.air_density)
+    worst = None
+    for label in ("ride_heavy", "hot"):
+        p = result.passes.get(label)
+        if p is None or len(p.stations) < 2:
+            continue
+        along, z = _profile(p)
+        c = feet_clearance(along, z, rider.hang_distance, gd, gz)
+        if worst is None or c.minimum < worst.minimum:
+            worst = c
+    result.clearance = worst
+
+
+def _checks(result: RunResult) -> list:
+    from models.run_checks import ride_checks
+
+    checks = []
+    try:
+        from models.checks import structural_checks
+    except ImportError:  # pragma: no cover - lands with the checks module
+        structural_checks = None
+    design = result.passes["design"]
+    if structural_checks is not None and design.states:
+        checks += structural_checks(result.system, design)
+    checks += ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
+    return checks

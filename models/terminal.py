@@ -1,0 +1,74 @@
+"""The terminal summary of a run, in the user's units, ending with the cautions."""
+from __future__ import annotations
+
+import math
+
+from models.cautions import CAUTIONS
+from models.units import show
+
+#: check kinds and the unit kind models.units.show formats them with
+_KIND_UNITS = {"force": "force", "stress": "pressure", "length": "length", "speed": "speed",
+               "moment": "moment"}
+
+
+def _value(value, kind: str, units: str) -> str:
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return "-"
+    if kind == "angle":
+        return f"{math.degrees(value):.2f} deg"
+    if kind in _KIND_UNITS:
+        try:
+            return show(value, _KIND_UNITS[kind], units)
+        except (KeyError, ValueError):
+            pass
+    return f"{value:.3g}"
+
+
+def summary_lines(result, out_dir, units: str) -> list[str]:
+    """Lines of text summing up a run."""
+    from models.installed import end_tensions, measured_sag
+
+    sc, system = result.scenario, result.system
+    lines = [f"spanstay run: {sc.project.name}"]
+    for name, line in system.lines.items():
+        t0, t1 = end_tensions(system, result.installed, line)
+        lines.append(f"  installed line '{name}': sag {show(measured_sag(system, result.installed, line), 'length', units)}, "
+                     f"end tensions {show(t0, 'force', units)} / {show(t1, 'force', units)}, "
+                     f"unstressed length {show(result.lengths[name], 'length', units)}")
+    for label, p in result.passes.items():
+        if p.stations:
+            tmax = max(s.tension_max for s in p.stations)
+            smax = max(s.sag for s in p.stations)
+            lines.append(f"  {label:<10} rider {show(p.weight, 'force', units)}: {len(p.stations)} stations, "
+                         f"largest tension {show(tmax, 'force', units)}, largest sag {show(smax, 'length', units)}")
+        if p.failed_at is not None:
+            lines.append(f"  {label:<10} NO EQUILIBRIUM with the rider {show(p.failed_at, 'length', units)} "
+                         f"along the cable: {p.failure[:160]}")
+    for key, r in result.rides.items():
+        end = (f"arrives at {show(r.arrival_speed, 'speed', units)}" if r.reaches_end
+               else f"STOPS {show(r.stop_distance, 'length', units)} along the line")
+        lines.append(f"  ride, {key} rider: top speed {show(r.top_speed, 'speed', units)}, {end}")
+    if result.clearance is not None:
+        c = result.clearance
+        lines.append(f"  smallest feet clearance {show(c.minimum, 'length', units)} at "
+                     f"{show(c.minimum_distance, 'length', units)}")
+    if result.slack is not None and result.slack.shares:
+        sb = result.slack.to_dict()
+        lines.append(f"  slack budget of the loaded sag {show(sb['loaded_sag'], 'length', units)}:")
+        for name, v in sb["shares"].items():
+            lines.append(f"    {name:<46} {_value(v, 'length', units)}")
+    lines.append("  checks:")
+    failed = 0
+    for c in result.checks:
+        d = c.to_dict()
+        mark = "ok  " if d["passed"] else "FAIL"
+        failed += not d["passed"]
+        util = d["utilization"]
+        util_s = f"{util:5.2f}" if util is not None else "  -  "
+        lines.append(f"    {mark} {util_s}  {d['description']}: {_value(d['demand'], d['kind'], units)} "
+                     f"vs {_value(d['capacity'], d['kind'], units)}")
+    lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
+    lines.append(f"  results: {out_dir}")
+    lines.append("")
+    lines += [f"CAUTION: {c}" for c in CAUTIONS]
+    return lines
