@@ -93,3 +93,34 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
         _fail(exc)
         return
     click.echo("\n".join(summary_lines(result, written, units)))
+
+
+@main.command("view")
+@click.argument("results", type=click.Path(file_okay=False))
+@click.option("--station", type=int, default=None, metavar="K",
+              help="Station to show, 0 to n-1 as in the vtk file names (default: the worst).")
+@click.option("--worst", is_flag=True, help="Show the station of the governing check.")
+@click.option("--exaggerate", type=float, default=None, metavar="X",
+              help="Scale post and footing movement by X (default: automatic; 1 = true scale).")
+@click.option("--color", "color", default="utilization", show_default=True, metavar="FIELD",
+              help="Colour by: utilization, N, My, Mz, moment, tension, soil, displacement.")
+@click.option("--png", type=click.Path(dir_okay=False), default=None, help="Write a PNG off-screen.")
+@click.option("--gif", type=click.Path(dir_okay=False), default=None,
+              help="Write an animation of the rider moving along the line, off-screen.")
+@click.option("--frames", type=int, default=None, metavar="N",
+              help="GIF frames, spread evenly over the stations (default: every station).")
+@click.option("--size", default="1200x800", show_default=True, metavar="WxH",
+              help="Picture size in pixels.")
+def view(results: str, station: int | None, worst: bool, exaggerate: float | None, color: str,
+         png: str | None, gif: str | None, frames: int | None, size: str) -> None:
+    """Show a results folder in 3D: the deformed structure with the rider on the line."""
+    from models.errors import InputError
+    from models.view import run_view
+
+    try:
+        said = run_view(results, station, worst, exaggerate, color, png, gif, frames, size)
+    except InputError as exc:
+        _fail(exc)
+        return
+    for line in said:
+        click.echo(line)
