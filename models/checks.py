@@ -456,12 +456,15 @@ def _tilt(state: State, node: int) -> float:
 
 
 def _ground_actions(system: System, placed, state: State) -> tuple[float, float, float]:
-    """Horizontal shear and bending moment (resultants) carried into the footing at grade."""
+    """Horizontal shear and moment (resultants) just above grade, and the largest p/p_u."""
     from models.footing import footing_response
 
     vx = footing_response(placed, system.model, state, (1.0, 0.0))
     vy = footing_response(placed, system.model, state, (0.0, 1.0))
-    V = float(np.hypot(vx.shear[0], vy.shear[0]))
+    # shear just above grade: the member's shear below the grade node plus that node's soil
+    # spring (the moment is continuous through it)
+    trib0 = float(placed.curves.tributary[placed.spring_node == 0].sum())
+    V = float(np.hypot(vx.shear[0] + vx.p[0] * trib0, vy.shear[0] + vy.p[0] * trib0))
     M = float(np.hypot(vx.moment[0], vy.moment[0]))
     return V, M, max(vx.max_ratio, vy.max_ratio)
 
