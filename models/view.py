@@ -109,7 +109,8 @@ class Scene:
         vals = cell_field(res, st, self.field)
         out = {"members": self._poly(member_prisms(res, st, pos), vals),
                "ropes": self._poly(rope_prisms(res, st, pos), vals)}
-        lines = np.c_[np.full(st.conn.shape[0], 2), st.conn].ravel()
+        drawn = np.isin(st.group, list(res.part_of_group()))
+        lines = np.c_[np.full(int(drawn.sum()), 2), st.conn[drawn]].ravel()
         out["outline"] = pv.PolyData(st.points, lines=lines)
         size = model_size(res, st)
         riders = rider_points(res, pos)
@@ -136,8 +137,9 @@ class Scene:
             plotter.add_mesh(grid, color=GROUND, opacity=0.35, show_edges=False, name="ground")
         plotter.add_mesh(self.meshes["outline"], color=OUTLINE, opacity=0.45, line_width=1,
                          name="outline")
-        sbar = dict(title=self.title, color=INK, vertical=True, position_x=0.86, position_y=0.2,
-                    height=0.6, width=0.05, fmt="%.3g", n_labels=5)
+        sbar = dict(title=self.title, color=INK, vertical=True, position_x=0.9, position_y=0.2,
+                    height=0.6, width=0.035, n_labels=5,
+                    fmt="%.0f" if max(abs(self.clim[0]), abs(self.clim[1])) >= 100 else "%.3g")
         common = dict(scalars="value", cmap=_cmap(self.field), clim=self.clim, nan_color=NO_VALUE,
                       smooth_shading=False, ambient=0.3, diffuse=0.75, specular=0.05)
         plotter.add_mesh(self.meshes["members"], show_scalar_bar=True, scalar_bar_args=sbar,
@@ -205,13 +207,13 @@ def _plotter(pv, size, off_screen: bool):
 def _camera(plotter, results: Results, k: int) -> None:
     st = results.station(k)
     lo, hi = st.points.min(axis=0), st.points.max(axis=0)
-    c = 0.5 * (lo + hi)
     size = model_size(results, st)
+    c = 0.5 * (lo + hi) + np.array([0.04 * size, 0.0, 0.0])  # leave room for the colour bar
     plotter.camera.focal_point = c
     plotter.camera.position = c + np.array([0.25, -1.1, 0.35]) * size
     plotter.camera.up = (0, 0, 1)
     plotter.reset_camera()
-    plotter.camera.zoom(1.45)
+    plotter.camera.zoom(1.3)
 
 
 def render_png(results: Results, path: str | Path, station: int, options: ViewOptions) -> Path:

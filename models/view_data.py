@@ -245,18 +245,38 @@ def soil_reaction(results: Results, st: Station) -> tuple[np.ndarray, dict[str, 
     return values, profiles
 
 
+#: words in check ids that name the same part as another word in group names
+_PART_WORDS = {"soil": "footing", "pier": "footing", "embedded": "footing"}
+
+
+def _check_key(check: dict) -> tuple[str, ...]:
+    """(anchor or 'line', part word) named by a check id such as 'anchor.west.post.ply1.stress'."""
+    tokens = str(check.get("id", "")).split(".")
+    if tokens and tokens[0] == "anchor":
+        tokens = tokens[1:]
+    tokens = [_PART_WORDS.get(t, t) for t in tokens[:2]]
+    return tuple(tokens)
+
+
 def utilization_by_part(results: Results) -> dict[str, float]:
-    """Part name -> highest utilization of the checks that name it."""
+    """Part name -> highest utilization of the checks that concern it.
+
+    A check names a part exactly (its "part" field is a part name) or by the
+    first two words of its id: the anchor and the part word ("west.post" covers
+    every ply of the west post, "line.main" the line, "west.soil" the footing).
+    """
     names = [p["name"] for p in results.parts]
+    keys = {n: tuple(_PART_WORDS.get(t, t) for t in n.split(".")[:2]) for n in names}
     out: dict[str, float] = {}
     for c in results.summary.get("checks", []):
         u = _num(c.get("utilization"))
         if u is None:
             continue
-        key = str(c.get("part", ""))
-        hits = [n for n in names if n == key or results_group(results, n) == key]
+        part = str(c.get("part", ""))
+        hits = [n for n in names if part in (n, results_group(results, n))]
         if not hits:
-            hits = [n for n in names if n.startswith(key + ".") or key.startswith(n + ".")]
+            key = _check_key(c)
+            hits = [n for n in names if len(key) == 2 and keys[n] == key]
         for n in hits:
             out[n] = max(out.get(n, 0.0), u)
     return out

@@ -128,24 +128,40 @@ def _chains(conn: np.ndarray) -> list[np.ndarray]:
     return chains
 
 
+def _similarity(a0, b0, a1, b1):
+    """(scale, rotation) taking segment a0-b0 onto a1-b1 (rotation about their normal)."""
+    u, w = b0 - a0, b1 - a1
+    scale = np.linalg.norm(w) / np.linalg.norm(u)
+    u, w = u / np.linalg.norm(u), w / np.linalg.norm(w)
+    axis = np.cross(u, w)
+    sin, cos = np.linalg.norm(axis), float(u @ w)
+    if sin < 1e-14:
+        return scale, np.eye(3)
+    k = axis / sin
+    kx = np.array([[0, -k[2], k[1]], [k[2], 0, -k[0]], [-k[1], k[0], 0]])
+    return scale, np.eye(3) + sin * kx + (1 - cos) * kx @ kx  # Rodrigues
+
+
 def deformed(results: Results, st: Station, factor: float) -> np.ndarray:
-    """Node positions drawn: exaggerated for members, true shape for ropes."""
+    """Node positions drawn: exaggerated for members, true shape for ropes.
+
+    Each rope keeps its loaded shape: it is mapped by the similarity that
+    takes its true ends onto its drawn (exaggerated) ends.
+    """
     pos = st.points + factor * st.displacement
     if factor == 1.0:
         return pos
+    true = st.points + st.displacement
     rope_groups = [int(p["group_index"]) for p in results.parts if p.get("kind") not in MEMBER_KINDS]
-    rope = np.isin(st.group, rope_groups)
     for gi in rope_groups:
-        conn = st.conn[st.group == gi]
-        for chain in _chains(conn):
-            x0 = st.points[chain]
-            arc = np.r_[0.0, np.cumsum(np.linalg.norm(np.diff(x0, axis=0), axis=1))]
-            t = (arc / arc[-1])[:, None] if arc[-1] > 0 else np.zeros((chain.size, 1))
-            u = st.displacement[chain]
-            ends = (1 - t) * u[0] + t * u[-1]
+        for chain in _chains(st.conn[st.group == gi]):
+            a0, b0 = true[chain[0]], true[chain[-1]]
+            a1, b1 = pos[chain[0]], pos[chain[-1]]
+            if np.linalg.norm(b0 - a0) <= 0 or np.linalg.norm(b1 - a1) <= 0:
+                continue
+            scale, rot = _similarity(a0, b0, a1, b1)
             inner = chain[1:-1]
-            pos[inner] = (x0 + u + (factor - 1.0) * ends)[1:-1]
-    del rope
+            pos[inner] = a1 + scale * (true[inner] - a0) @ rot.T
     return pos
 
 
