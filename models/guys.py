@@ -178,33 +178,52 @@ def guy_state(model: Model, state: State, guy: BuiltGuy) -> GuyState:
     return GuyState(tension, tension <= 0.0, move, state.translation[guy.eye_node].copy())
 
 
-def tune_pretension(model: Model, guys: list[BuiltGuy], state: State | None = None,
-                    iterations: int = 8, rtol: float = 1e-3) -> State:
-    """Re-cut the guys so that each carries its stated pretension in the solved model.
+def pretension_targets(built) -> list[tuple[str, float]]:
+    """(cable group, stated pretension N) of every pretensioned guy and brace wire of a
+    BuiltAnchor, for :func:`tune_pretension`."""
+    out = [(g.cable, g.spec.pretension) for g in built.guys if g.spec.pretension > 0]
+    brace = getattr(built, "brace", None)
+    wire = getattr(brace, "diagonal", None)
+    t0 = getattr(getattr(built.spec, "brace", None), "diagonal_pretension", None)
+    if wire is not None and t0:
+        out.append((wire, t0))
+    return out
 
-    Secant steps on each guy's unstressed length, all guys at once, under the
-    model's own loads (solve the installed state with them). Returns the final
-    state. Guys with zero pretension keep their length.
+
+def tune_pretension(model: Model, targets: list[tuple[str, float]], state: State | None = None,
+                    iterations: int = 10, rtol: float = 1e-3) -> State:
+    """Re-cut one-segment wires so each carries its stated pretension in the solved model.
+
+    ``targets`` pairs a cable group (one segment: a guy, a brace diagonal) with
+    its pretension (N); see :func:`pretension_targets`. Secant steps on the
+    unstressed lengths, all wires at once, under the model's current loads
+    (call it on the installed state). Returns the final state.
     """
-    active = [g for g in guys if g.spec.pretension > 0]
-    state = solve(model, state=state) if state is None else state
-    if not active:
+    targets = [(name, t) for name, t in targets if t > 0]
+    state = solve(model) if state is None else state
+    if not targets:
         return state
-    target = np.array([g.spec.pretension for g in active])
-    L_a = np.array([g.L0 for g in active])
-    t_a = np.array([state.group(g.cable).tension[0] for g in active])
-    # first step: the guy alone, stiffness EA / L0
-    ea = np.array([g.EA for g in active])
-    L_b = L_a * (1.0 - (target - t_a) / ea)
+    groups = [model.group(name) for name, _ in targets]
+    target = np.array([t for _, t in targets])
+    ea = np.array([float(g.EA[0]) for g in groups])
+
+    def tensions(st):
+        return np.array([float(st.group(name).tension[0]) for name, _ in targets])
+
+    L_a = np.array([float(g.L0[0]) for g in groups])
+    t_a = tensions(state)
+    if np.all(np.abs(t_a - target) <= rtol * target):
+        return state
+    L_b = L_a * (1.0 - (target - t_a) / ea)  # first step: each wire alone, EA / L0
     for _ in range(iterations):
-        for g, L in zip(active, L_b):
-            g._group.L0[:] = L
+        for g, L in zip(groups, L_b):
+            g.L0[:] = L
         state = solve(model, state=state)
-        t_b = np.array([state.group(g.cable).tension[0] for g in active])
+        t_b = tensions(state)
         if np.all(np.abs(t_b - target) <= rtol * target):
             break
-        slope = np.where(np.abs(L_b - L_a) > 0, (t_b - t_a) / np.where(L_b != L_a, L_b - L_a, 1.0),
-                         -ea / L_b)
-        slope = np.where(slope < 0, slope, -ea / L_b)
+        dL = L_b - L_a
+        slope = np.where(np.abs(dL) > 0, (t_b - t_a) / np.where(dL != 0, dL, 1.0), 0.0)
+        slope = np.where(slope < 0, slope, -ea / L_b)  # tension falls as the wire lengthens
         L_a, t_a, L_b = L_b, t_b, L_b + (target - t_b) / slope
     return state

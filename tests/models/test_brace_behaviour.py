@@ -1,0 +1,76 @@
+"""H-brace and kicker behaviour: the wire on the wrong diagonal goes slack, parts are
+recorded for the slack budget, and "rigid" parts stiffen the anchor.
+
+Source: statics of a braced frame (common practice for H-braces: the wire runs from
+the top of the post the pull moves toward to the bottom of the other, so the sway
+the pull causes stretches it; the other diagonal shortens and loses its tension).
+"""
+from dataclasses import replace
+
+import numpy as np
+import pytest
+
+from fem import Model, solve
+from models.anchor_checks import h_brace_checks
+from models.anchor_model import add_anchor
+from models.braces import add_h_brace, member_axial_force
+from models.guys import tune_pretension
+from models.spec import BraceSpec, FootingSpec, GroundSpec
+from tests.reference.test_brace_statics import FOUR, anchor, h_brace
+
+FIXED = FootingSpec(kind="fixed", depth=0.0, pier_diameter=None, backfill=None,
+                    base_spring=None, soil=None, slab_at_grade=False,
+                    double_lateral_bearing=False)
+GROUND = GroundSpec(profile=(), soil=())
+PULL = np.array([1.0, 0.0, 0.0])
+
+
+def h_frame(diagonal, P, T0=400.0):
+    spec = replace(anchor(1.8, None), footing=FIXED)
+    brace = replace(h_brace(1.5, 2.4, T0), second_footing=FIXED)
+    m = Model()
+    built = add_anchor(m, spec, GROUND, [1.5], PULL)
+    hb = add_h_brace(m, built, replace(spec, brace=brace), GROUND, PULL, frozenset(),
+                     diagonal=diagonal)
+    # the wire is tightened to T0 on the standing frame (re-cut for the frame's give)
+    st0 = tune_pretension(m, [(hb.diagonal, T0)])
+    m.add_load(built.node_at(1.5), [P, 0, 0])
+    st = solve(m, state=st0, steps=3)
+    return hb, st0, st
+
+
+def test_wire_on_the_wrong_diagonal_goes_slack():
+    T0, P = 400.0, 3000.0
+    wrong, st0, st = h_frame("second", P, T0)
+    assert st0.group(wrong.diagonal).tension[0] == pytest.approx(T0, rel=0.02)
+    assert st.group(wrong.diagonal).tension[0] == 0.0
+    checks = h_brace_checks("A", wrong, st, breaking_strength=31e3, rope_name="test")
+    diag = [c for c in checks if c.part == "H-brace diagonal"][0]
+    assert diag.finding.startswith("slack")
+    right, _, st_r = h_frame("main", P, T0)
+    t_right = st_r.group(right.diagonal).tension[0]
+    assert t_right > T0 + 0.3 * P  # the right wire picks up a good part of the pull
+    # and it holds the post better: the rail end on A moves less
+    assert (st_r.translation[right.rail.end1_support, 0]
+            < 0.7 * st.translation[wrong.rail.end1_support, 0])
+
+
+def test_parts_are_recorded_for_the_slack_budget_and_rigid_brace_stiffens():
+    brace = BraceSpec(kind="kicker", direction_deg=None, attach_height=1.8, foot_distance=1.2,
+                      member=FOUR, species="southern pine", grade="No. 2",
+                      block_width=0.2, block_length=0.4)
+    spec = replace(anchor(2.7, brace), footing=FIXED)
+    tops = []
+    for rigid in (frozenset(), frozenset({"brace"})):
+        m = Model()
+        built = add_anchor(m, spec, GROUND, [2.7], PULL, rigid)
+        assert set(built.groups["brace"]) >= {"A.kicker", "A.kicker.pins"}
+        if not rigid:
+            assert {"A.kicker.block_ux", "A.kicker.block_uz"} <= set(built.groups["brace"])
+        else:
+            assert not any("block" in g for g in built.groups["brace"])
+        m.add_load(built.node_at(2.7), [1500.0, 0, 0])
+        st = solve(m, steps=2)
+        assert member_axial_force(st, built.brace.strut).max() < 0  # compression
+        tops.append(st.translation[built.top_node, 0])
+    assert 0 < tops[1] < 0.8 * tops[0]

@@ -1,0 +1,76 @@
+"""The guyed, braced, H-brace and tree starter layouts build and reach an installed
+state, and each anchor's ground reactions balance the line's pull on it (statics:
+posts, guys and brace members are weightless here; the line's end segment pulls
+with its tension along its chord plus half its own weight)."""
+from importlib import resources
+
+import numpy as np
+import pytest
+
+from models.anchor_checks import check_anchor, top_soil_class
+from models.braces import member_axial_force
+from models.installed import install
+from models.scenario import load_scenario
+
+
+def layout(name):
+    return load_scenario(resources.files("models").joinpath(f"layouts/{name}.toml"))
+
+
+def line_pull(system, state, anchor_name):
+    """Force (N) of the lines' end segments on an anchor's attachment node."""
+    model = system.model
+    x = model.coords + state.translation
+    total = np.zeros(3)
+    for bl in system.lines.values():
+        g = model.group(bl.group)
+        t = state.group(bl.group).tension
+        for k, (seg, node, other) in enumerate(((0, bl.nodes[0], bl.nodes[1]),
+                                                 (-1, bl.nodes[-1], bl.nodes[-2]))):
+            name = bl.spec.start if k == 0 else bl.spec.end
+            if name != anchor_name:
+                continue
+            e = x[other] - x[node]
+            total += t[seg] * e / np.linalg.norm(e)
+            total += 0.5 * g.weight[seg] * g.L0[seg] * model.gravity
+    return total
+
+
+@pytest.fixture(scope="module", params=["guyed", "braced", "h-brace", "tree"])
+def installed(request):
+    scenario = layout(request.param)
+    system, state, _ = install(scenario)
+    return request.param, scenario, system, state
+
+
+def test_layout_installs_and_each_anchor_balances_its_line(installed):
+    name, scenario, system, state = installed
+    assert np.all(np.isfinite(state.translation))
+    for a in system.anchors.values():
+        if a.laminated is not None:
+            continue  # laminated plies carry their own weight
+        rep = check_anchor(system.model, a, state, top_soil_class=top_soil_class(scenario.ground))
+        ground = sum(rep.shares.values())
+        pull = line_pull(system, state, a.spec.name)
+        np.testing.assert_allclose(ground + pull, 0.0, atol=1e-6 * np.linalg.norm(pull) + 1e-6)
+        assert all(np.isfinite(c.utilization) for c in rep.checks)
+
+
+def test_layout_parts_do_their_job(installed):
+    name, scenario, system, state = installed
+    if name == "guyed":
+        pole = system.anchors["top-pole"]
+        t = [state.group(g.cable).tension[0] for g in pole.guys]
+        assert len(t) == 2 and min(t) > 0  # both guys taut behind the pole
+        assert pole.groups["guy"]
+    elif name == "braced":
+        kicker = system.anchors["launch"].brace
+        assert member_axial_force(state, kicker.strut).max() < 0  # strut pushes
+    elif name == "h-brace":
+        hb = system.anchors["launch"].brace
+        assert hb.diagonal_from == "main"
+        assert state.group(hb.diagonal).tension[0] > 300 * 4.448  # above its pretension
+        assert any(g.startswith("launch.brace-post") for g in system.anchors["launch"].groups["post"])
+    else:
+        rep = check_anchor(system.model, system.anchors["oak"], state)
+        assert rep.cautions and any(c.part == "root plate" for c in rep.checks)

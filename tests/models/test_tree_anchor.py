@@ -1,0 +1,48 @@
+"""Tree anchors: a missing root-plate stiffness is an InputError naming the anchor; the
+stem tapers as given; the root plate turns as a rotational spring (statics)."""
+import numpy as np
+import pytest
+
+from fem import Model, solve
+from models.anchor_checks import check_anchor
+from models.anchor_model import add_anchor
+from models.errors import InputError
+from models.spec import AnchorSpec, GroundSpec, TreeSpec
+
+GROUND = GroundSpec(profile=(), soil=())
+
+
+def tree(k_root, capacity=None):
+    t = TreeSpec(diameter_at_grade=0.6, diameter_at_attachment=0.45, attachment_height=4.0,
+                 E_green=8e9, root_plate_stiffness=k_root, root_plate_capacity=capacity,
+                 species="white oak")
+    return AnchorSpec(name="old-oak", kind="tree", x=0.0, y=0.0, grade=0.0, post=None,
+                      footing=None, guys=(), brace=None, tree=t)
+
+
+@pytest.mark.parametrize("k_root", [0.0, None])
+def test_tree_without_root_stiffness(k_root):
+    with pytest.raises(InputError) as err:
+        add_anchor(Model(), tree(k_root), GROUND, [4.0], np.array([1.0, 0, 0]))
+    assert "old-oak" in str(err.value) and "root-plate" in str(err.value)
+
+
+def test_root_plate_rotation_and_checks():
+    # Statics: the root plate takes the whole moment P h; its rotation is P h / k.
+    # The top of the stem moves by that rotation times h plus the stem's own bending
+    # (tapered, so only bounded here by the uniform stems at the two end diameters:
+    # Roark Table 8.1 case 1a, P h^3 / (3 E I)).
+    k, P, h = 5e7, 4000.0, 4.0
+    m = Model()
+    built = add_anchor(m, tree(k, capacity=1e5), GROUND, [h], np.array([1.0, 0, 0]))
+    m.add_load(built.node_at(h), [P, 0, 0])
+    st = solve(m)
+    assert st.reactions[built.grade_node, 4] == pytest.approx(-P * h, rel=1e-3)
+    u = st.translation[built.node_at(h), 0]
+    bend = [P * h**3 / (3 * 8e9 * np.pi * d**4 / 64) for d in (0.6, 0.45)]
+    assert P * h / k * h + bend[0] < u < P * h / k * h + bend[1]
+    rep = check_anchor(m, built, st)
+    root = [c for c in rep.checks if c.part == "root plate"][0]
+    assert root.demand == pytest.approx(P * h, rel=1e-3) and root.capacity == 1e5
+    assert any("arborist" in c for c in rep.cautions)
+    assert any("girdle" in c for c in rep.cautions)
