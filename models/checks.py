@@ -12,7 +12,8 @@ coldest temperature) and keeps, for each check, the worst station:
 - soil: largest p/p_u, ground-line tilt, IBC 2021 Eq. 18-1 (18-2) embedment,
   ground-line motion when IBC §1806.3.4 doubling is used;
 - anchor deflection at the line attachment;
-- guys: tension against breaking strength x efficiency / FoS, ground-anchor pull.
+- guys, braces and trees: :mod:`models.anchor_checks` (guy and brace-wire
+  tension, ground-anchor pull, struts, rails, bearing, root plate, stem).
 
 Load duration (NDS 2.3.2): the rider's pull lasts seconds per ride but recurs
 thousands of times over the life of a line; its accumulated duration is not
@@ -25,6 +26,7 @@ CD = 0.9.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import asdict, dataclass, field, replace
 
 import numpy as np
@@ -51,6 +53,12 @@ DEFLECTION_RATIO = 40.0
 #: NDS Appendix G buckling length coefficient, post fixed at the base and free at the
 #: top (from memory); conservative for guyed posts.
 KE_CANTILEVER = 2.1
+#: Net axial tension below this fraction of Fc' is taken as round-off where no Ft is
+#: tabulated (round poles).
+NO_FT_TOLERANCE = 1e-6
+#: Stand-in Ft'/Fb' for round poles, which have no tabulated Ft: a judgement of ours, below
+#: the ratio of the tabulated values of No. 2 sawn lumber (about 0.6).
+POLE_FT_OVER_FB = 0.5
 
 
 @dataclass
@@ -161,19 +169,35 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
 
 
 def extra_anchor_checks(system: System, state: State) -> list[Check]:
-    """Hook for checks of guys, braces and trees written in ``models.anchor_checks``.
+    """Guy, brace and tree checks of every anchor, from :mod:`models.anchor_checks`.
 
-    Calls ``models.anchor_checks.anchor_checks(system, state)`` when that
-    module provides it; returns nothing otherwise.
+    Each ``AnchorCheck`` becomes a :class:`Check` with id
+    ``anchor.<name>.<part>.<check>`` (lower case, words joined by "_"); a
+    finding (slack guy, pulled-out ground anchor, lifting block) is put in
+    front of the note.
     """
-    try:
-        from models import anchor_checks
-    except ImportError:
-        return []
-    fn = getattr(anchor_checks, "anchor_checks", None)
-    if fn is None:
-        return []
-    return [c if isinstance(c, Check) else Check(**c) for c in fn(system, state)]
+    from models.anchor_checks import check_anchor, top_soil_class
+
+    fos = float(system.scenario.settings.factor_of_safety)
+    soil = top_soil_class(system.scenario.ground)
+    out = []
+    for anchor in system.anchors.values():
+        report = check_anchor(system.model, anchor, state, fos, soil)
+        for c in report.checks:
+            note = "; ".join(t for t in (f"finding: {c.finding}" if c.finding else "", c.note) if t)
+            out.append(Check(f"anchor.{c.anchor}.{_slug(c.part)}.{_slug(c.check)}", c.part,
+                             c.anchor, f"{c.part}: {c.check}", c.demand, c.capacity,
+                             _KINDS.get(c.unit, c.unit), source=c.source, note=note))
+    return out
+
+
+#: units of models.anchor_checks -> Check kinds
+_KINDS = {"N": "force", "Pa": "stress", "m": "length", "rad": "angle", "-": "ratio",
+          "N m": "moment"}
+
+
+def _slug(text: str) -> str:
+    return re.sub(r"[^a-z0-9]+", "_", str(text).lower()).strip("_")
 
 
 # ------------------------------------------------------------------------------ line
@@ -213,7 +237,8 @@ def line_checks(system: System, state: State, bl) -> list[Check]:
 # ---------------------------------------------------------------------------- anchors
 def anchor_part_checks(system: System, state: State, anchor, duration: str = RIDER_DURATION,
                        cache: dict | None = None) -> list[Check]:
-    """Post, soil, deflection and guy checks of one anchor in one state."""
+    """Post, soil and deflection checks of one anchor in one state (guys, braces and
+    trees: :func:`extra_anchor_checks`)."""
     cache = {} if cache is None else cache
     spec = anchor.spec
     out: list[Check] = []
@@ -227,7 +252,6 @@ def anchor_part_checks(system: System, state: State, anchor, duration: str = RID
             out += _embedded_laminated(system, anchor, state, duration, cache)
     out += soil_checks(system, anchor, state, cache)
     out += deflection_checks(system, anchor, state)
-    out += guy_checks(system, anchor, state)
     return out
 
 
@@ -288,8 +312,10 @@ def _combined(f_axial, fb1, fb2, Fc, Fb1, Fb2, Ft, Fb1_star, FcE1, FcE2, FbE):
         d2 = 1.0 - fc / FcE2 - (fb1 / FbE) ** 2
         comp = ((fc / Fc) ** 2 + np.where(d1 > 0, fb1 / (Fb1 * d1), np.inf)
                 + np.where(d2 > 0, fb2 / (Fb2 * d2), np.inf))
-        a = (np.where(ft > 0, ft / Ft, 0.0) if Ft > 0 else np.where(ft > 0, np.inf, 0.0)) \
-            + fb1 / Fb1_star + fb2 / Fb2
+        # round poles have no tabulated Ft: a real net tension fails the check, round-off
+        # (below NO_FT_TOLERANCE x Fc') is ignored
+        a = (np.where(ft > 0, ft / Ft, 0.0) if Ft > 0
+             else np.where(ft > NO_FT_TOLERANCE * Fc, np.inf, 0.0)) + fb1 / Fb1_star + fb2 / Fb2
         fb = fb1 + fb2
         b = (fb1 / Fb1 + fb2 / Fb2) * np.maximum(fb - ft, 0.0) / np.maximum(fb, 1e-300)
     tens = np.maximum(a, b)
@@ -316,8 +342,8 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
     parts = [(anchor.groups["post"][0], True)]
     if spec.footing is not None and spec.footing.kind == "embedded":
         parts.append((anchor.groups["footing_member"][0], False))
-    values, shears, heights, notes = [], [], [], []
-    factors = None
+    values, shears, heights = [], [], []
+    factors, extra_note = None, ""
     for group, above in parts:
         forces, h = _ends(model, group, state, spec.grade)
         if kind == "round":
@@ -334,8 +360,12 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
             else:
                 cp, FcE = None, math.inf
             Fc = edge["Fc_star"] * (cp.value if cp else 1.0)
-            val = _combined(fa, fb, 0.0 * fb, Fc, edge["Fb"], edge["Fb"], edge["Ft"], edge["Fb"],
+            Ft = edge["Ft"] if edge["Ft"] > 0 else POLE_FT_OVER_FB * edge["Fb"]
+            val = _combined(fa, fb, 0.0 * fb, Fc, edge["Fb"], edge["Fb"], Ft, edge["Fb"],
                             FcE, FcE, math.inf)
+            if edge["Ft"] <= 0:
+                extra_note = (f"; no Ft tabulated for poles: Ft' taken as {POLE_FT_OVER_FB:g} "
+                              "Fb' (a judgement) where the pole is in net tension")
             factors = list(edge.factors) + ([cp] if cp else [])
         else:
             b, d = post.section.width, post.section.depth
@@ -368,6 +398,8 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
     le_note = f"le = {le:.3g} m (Ke {KE_CANTILEVER} x height, NDS Appendix G, from memory)"
     factor_note = "; ".join(f"{f.symbol} {f.value:.3g} on {'/'.join(f.applies_to)}"
                             for f in factors if f.value != 1.0)
+    factor_note += "".join(f"; {f.symbol}: {f.note}" for f in factors
+                           if f.symbol in ("CP", "CL") and f.value != 1.0) + extra_note
     return [
         Check(f"anchor.{name}.post.stress", "post", name,
               f"{shape}: combined axial and bending stress (NDS interaction)",
@@ -433,7 +465,8 @@ def laminated_post_checks(anchor, state: State, duration: str = RIDER_DURATION) 
     for c in check_laminated(lam, res, duration=duration, wet=True):
         part = c.part.replace(" ", "")
         if c.part.startswith("fasteners"):
-            cid, part_name, kind = f"anchor.{name}.{part.replace(',', '.')}.force", "fasteners", "force"
+            cid = f"anchor.{name}.{part.replace(',', '.')}.force"
+            part_name, kind = "fasteners", "force"
         elif c.part == "post":
             cid, part_name, kind = f"anchor.{name}.post.stability", "post", "ratio"
         elif c.check == "shear":
@@ -445,7 +478,8 @@ def laminated_post_checks(anchor, state: State, duration: str = RIDER_DURATION) 
         out.append(Check(cid, part_name, name, f"laminated post, {c.part}: {c.check}",
                          c.demand, c.capacity, kind,
                          source=f"{c.clause}; load duration '{duration}'",
-                         note=f"at {c.height:.2f} m above grade; {c.note}; {factor_note}".strip("; ")))
+                         note=f"at {c.height:.2f} m above grade; {c.note}; "
+                              f"{factor_note}".strip("; ")))
     return out
 
 
@@ -467,6 +501,12 @@ def _ground_actions(system: System, placed, state: State) -> tuple[float, float,
     V = float(np.hypot(vx.shear[0] + vx.p[0] * trib0, vy.shear[0] + vy.p[0] * trib0))
     M = float(np.hypot(vx.moment[0], vy.moment[0]))
     return V, M, max(vx.max_ratio, vy.max_ratio)
+
+
+def _has_soil_limit(placed) -> bool:
+    """True when some p-y curve of the footing has an ultimate resistance (not all linear)."""
+    pu = np.asarray(placed.curves.p_ultimate, float)
+    return bool(np.any(np.isfinite(pu) & (pu > 0)))
 
 
 def _ibc_footing(anchor):
@@ -500,11 +540,13 @@ def soil_checks(system: System, anchor, state: State, cache: dict | None = None)
         return out
     fs = spec.footing
     V, M, ratio = _ground_actions(system, placed, state)
-    out.append(Check(f"anchor.{name}.soil.pressure", "soil", name,
-                     "largest soil reaction against its p-y limit (p / p_u)", ratio, 1.0, "ratio",
-                     source="p-y curves: API RP 2A sand, Matlock (1970) clay",
-                     note="API sand curves approach their limit A p_u without reaching it: "
-                          "a ratio near 1 means the soil near grade is at its limit"))
+    if _has_soil_limit(placed):
+        out.append(Check(f"anchor.{name}.soil.pressure", "soil", name,
+                         "largest soil reaction against its p-y limit (p / p_u)", ratio, 1.0,
+                         "ratio",
+                         source="p-y curves: API RP 2A sand, Matlock (1970) clay",
+                         note="API sand curves approach their limit A p_u without reaching it: "
+                              "a ratio near 1 means the soil near grade is at its limit"))
     if fs.double_lateral_bearing:
         move = float(np.hypot(*state.translation[anchor.grade_node][:2]))
         out.append(Check(f"anchor.{name}.footing.ground_motion", "footing", name,
@@ -555,31 +597,6 @@ def deflection_checks(system: System, anchor, state: State) -> list[Check]:
                   note="total from the unloaded position, installed pull included")]
 
 
-# ------------------------------------------------------------------------------- guys
-def guy_checks(system: System, anchor, state: State) -> list[Check]:
-    """Guy tension and ground-anchor pull of each guy of an anchor."""
-    spec = anchor.spec
-    fos, fos_src = _fos(system)
-    out = []
-    for i, guy in enumerate(spec.guys):
-        group = f"{spec.name}.guy{i + 1}"
-        t = float(np.max(state.group(group).tension))
-        eff = guy.termination_efficiency
-        out.append(Check(f"anchor.{spec.name}.guy{i + 1}.tension", "guy", spec.name,
-                         f"guy {i + 1} tension against breaking strength x efficiency {eff:g} "
-                         f"/ {fos:g}", t, guy.rope.breaking_strength * eff / fos, "force",
-                         source=f"{fos_src}; breaking strength: {guy.rope.source}",
-                         note=f"{guy.rope.name}"))
-        if guy.anchor_capacity is not None:
-            out.append(Check(f"anchor.{spec.name}.guy{i + 1}.ground_anchor", "guy", spec.name,
-                             f"pull on guy {i + 1}'s ground anchor against its capacity",
-                             t, guy.anchor_capacity, "force",
-                             source="capacity as given (a design input)",
-                             note="the given capacity is taken as an allowable working load: "
-                                  "divide an ultimate or test rating by a factor of safety"))
-    return out
-
-
 # ---------------------------------------------------------------------------- gaps
 def unchecked_parts(system: System) -> list[str]:
     """Plain statements of what ``structural_checks`` does not check in this system."""
@@ -588,21 +605,22 @@ def unchecked_parts(system: System) -> list[str]:
         spec = anchor.spec
         name = spec.name
         if spec.kind == "tree":
-            out.append(f"anchor '{name}': the tree is checked only where models.anchor_checks "
-                       "covers it; have an arborist assess it")
+            out.append(f"anchor '{name}': a living tree; only its root plate (against a given "
+                       "capacity) and stem stress (against green MOR) are checked: have an "
+                       "arborist assess it")
             continue
         if spec.post.kind != "laminated" and (anchor.post_section or {}).get("ref") is None:
             out.append(f"anchor '{name}': post stresses not checked (no species and grade)")
         if spec.footing is not None and spec.footing.kind == "pier":
             out.append(f"anchor '{name}': the concrete pier itself (reinforcement, bearing of "
                        "the post in the pier) is not checked")
+        if anchor.footing is not None and not _has_soil_limit(anchor.footing):
+            out.append(f"anchor '{name}': soil utilization not checked (linear modulus soil has "
+                       "no ultimate resistance); the tilt and IBC checks still apply")
         if anchor.footing is not None:
             layers = anchor.footing.profile.layers
             if any(l.ibc_class is None for l in layers if l.top < anchor.footing.footing.depth):
                 out.append(f"anchor '{name}': IBC embedment not checked (give ibc_class for "
                            "every soil layer the footing passes through)")
-        if spec.brace is not None:
-            out.append(f"anchor '{name}': the brace is checked only where models.anchor_checks "
-                       "covers it")
     out.append("torsion in posts and bearing of hardware on the wood are not checked")
     return out

@@ -74,7 +74,8 @@ def grade_actions(system, state, s):
     force, top = pull_on_post_top(system, state, s)
     base = system.model.coords[anchor.grade_node] + state.translation[anchor.grade_node]
     moment = np.cross(top - base, force)
-    return force[2], float(np.hypot(force[0], force[1])), float(np.hypot(moment[0], moment[1])), force
+    shear, bending = np.hypot(force[0], force[1]), np.hypot(moment[0], moment[1])
+    return force[2], float(shear), float(bending), force
 
 
 # NDS Supplement (2018) Table 4A, Douglas fir-larch No. 2 (references.md, from memory)
@@ -175,6 +176,7 @@ def test_permanent_pull_uses_permanent_load_duration(solved):
     normal = {c.id: c for c in state_checks(system, state, gov, "ten years")}
     permanent = {c.id: c for c in state_checks(system, state, gov, "permanent")}
     # NDS Table 2.3.2: CD = 0.9 for permanent load, 1.0 for normal (from memory)
-    assert permanent["anchor.a.post.shear"].capacity == pytest.approx(FV * 0.9 * CM_FV * PSI, rel=1e-9)
+    assert permanent["anchor.a.post.shear"].capacity == pytest.approx(FV * 0.9 * CM_FV * PSI,
+                                                                      rel=1e-9)
     assert normal["anchor.a.post.shear"].capacity == pytest.approx(FV * 1.0 * CM_FV * PSI, rel=1e-9)
     assert permanent["anchor.a.post.stress"].demand > normal["anchor.a.post.stress"].demand
