@@ -64,7 +64,7 @@ def convert(value: float, kind: str, units: str) -> float:
 
 def number(x: float | None, digits: int = 3) -> str:
     """Round to ``digits`` significant figures, thousands separated; '-' for none."""
-    if x is None or (isinstance(x, float) and not math.isfinite(x)):
+    if not isinstance(x, (int, float)) or isinstance(x, bool) or not math.isfinite(x):
         return "–"
     if x == 0:
         return "0"
