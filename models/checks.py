@@ -353,7 +353,9 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
             fa = forces[..., 0] / A
             fb = np.hypot(forces[..., 4], forces[..., 5]) / (math.pi * dia**3 / 32.0)
             fv = 4.0 / 3.0 * np.hypot(forces[..., 1], forces[..., 2]) / A  # solid circle
-            d_eq = math.sqrt(math.pi) / 2.0 * float(np.min(dia))  # square of equal area
+            # NDS: a round column as the square of equal area (from memory), at the smallest
+            # diameter of a tapered pole (on the safe side)
+            d_eq = math.sqrt(math.pi) / 2.0 * float(np.min(dia))
             if above:
                 cp = column_stability_factor(edge["Fc_star"], Emin, le / d_eq, c=0.85)
                 FcE = column_buckling_stress(Emin, le / d_eq)
@@ -366,6 +368,9 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
             if edge["Ft"] <= 0:
                 extra_note = (f"; no Ft tabulated for poles: Ft' taken as {POLE_FT_OVER_FB:g} "
                               "Fb' (a judgement) where the pole is in net tension")
+            if above:
+                extra_note += (f"; le/d with d = {d_eq:.3g} m, the side of the square of equal "
+                               "area at the smallest diameter")
             factors = list(edge.factors) + ([cp] if cp else [])
         else:
             b, d = post.section.width, post.section.depth

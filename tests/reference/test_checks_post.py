@@ -25,7 +25,14 @@ HEIGHT = 3.0              # m, post height = attachment height
 WEIGHT = 800.0            # N, design rider (heaviest x dynamic factor)
 
 
-def scenario():
+SAWN = {"kind": "sawn", "height": f"{HEIGHT} m", "nominal": "4x8",
+        "species": "douglas fir-larch", "grade": "No. 2"}
+POLE_D = 0.25  # m
+POLE = {"kind": "round", "height": f"{HEIGHT} m", "diameter": f"{POLE_D} m",
+        "species": "southern pine"}
+
+
+def scenario(post=SAWN):
     return read_scenario({
         "settings": {"factor_of_safety": 5, "install_temperature": "15 degC"},
         "line": [{"name": "main", "from": "a", "to": "b", "from_height": f"{HEIGHT} m",
@@ -34,9 +41,7 @@ def scenario():
         "rider": {"lightest": "30 kg", "heaviest": "80 kg", "hang_distance": "1.5 m"},
         "ground": {"profile": [["0 m", "0 m"], ["20 m", "0 m"]]},
         "anchor": [
-            {"name": "a", "position": ["0 m", "0 m"],
-             "post": {"kind": "sawn", "height": f"{HEIGHT} m", "nominal": "4x8",
-                      "species": "douglas fir-larch", "grade": "No. 2"},
+            {"name": "a", "position": ["0 m", "0 m"], "post": post,
              "footing": {"kind": "fixed"}},
             {"name": "b", "position": ["20 m", "0 m"],
              "post": {"kind": "sawn", "height": f"{HEIGHT} m", "nominal": "8x8",
@@ -44,9 +49,8 @@ def scenario():
              "footing": {"kind": "fixed"}}]})
 
 
-@pytest.fixture(scope="module")
-def solved():
-    system, installed, _ = install(scenario())
+def solve(post):
+    system, installed, _ = install(scenario(post))
     line = system.lines["main"]
     stations = np.linspace(2.0, line.L0 - 2.0, 5)
     design = run_pass(system, installed, line, stations, WEIGHT, "design", 288.15,
@@ -54,6 +58,11 @@ def solved():
     assert len(design.states) == stations.size
     checks = {c.id: c for c in structural_checks(system, design)}
     return system, design, checks
+
+
+@pytest.fixture(scope="module")
+def solved():
+    return solve(SAWN)
 
 
 def pull_on_post_top(system, state, s):
@@ -180,3 +189,27 @@ def test_permanent_pull_uses_permanent_load_duration(solved):
                                                                       rel=1e-9)
     assert normal["anchor.a.post.shear"].capacity == pytest.approx(FV * 1.0 * CM_FV * PSI, rel=1e-9)
     assert permanent["anchor.a.post.stress"].demand > normal["anchor.a.post.stress"].demand
+
+
+def test_round_pole_combined_stress_matches_hand_nds_interaction():
+    system, design, checks = solve(POLE)
+    # NDS Supplement (2018) Table 6A, treated southern pine round piles (from memory, as the
+    # catalog): Fb 2400, Fc 1200, Emin 790,000 psi; CM = 1.0 for poles (NDS 6.3), CD = 1.0
+    fb_ref, fc_ref, emin = 2400 * PSI, 1200 * PSI, 790_000 * PSI
+    area, s = math.pi * POLE_D**2 / 4, math.pi * POLE_D**3 / 32
+    le = 2.1 * HEIGHT                                # NDS Appendix G, Ke 2.1 (from memory)
+    d_eq = math.sqrt(area)                           # square of the same area (from memory)
+    fce = 0.822 * emin / (le / d_eq) ** 2
+    fc_prime = fc_ref * stability(fce / fc_ref, 0.85)    # NDS 3.7.1, c = 0.85 for poles
+    hand = []
+    for st, state in zip(design.stations, design.states):
+        n, _, m, _ = grade_actions(system, state, st.s)
+        fc, fb = max(-n, 0.0) / area, m / s
+        hand.append((fc / fc_prime) ** 2 + fb / (fb_ref * (1 - fc / fce)))    # NDS 3.9.2
+    check = checks["anchor.a.post.stress"]
+    assert check.demand == pytest.approx(max(hand), rel=1e-2)
+    assert check.governing["station"] == int(np.argmax(hand))
+    v = max(grade_actions(system, state, st.s)[1]
+            for st, state in zip(design.stations, design.states))
+    # largest shear stress of a solid circle: 4 V / (3 A) (Roark / beam theory)
+    assert checks["anchor.a.post.shear"].demand == pytest.approx(4 * v / (3 * area), rel=1e-2)
