@@ -39,6 +39,8 @@ KEY_KINDS: dict[str, str] = {
     "density": "density", "start_speed": "speed", "install_temperature": "temperature",
     "use_temperatures": "temperature", "alpha": "per kelvin",
 }
+#: tables whose width and depth are section sizes, not site lengths
+SECTION_TABLES = {"section", "ply", "member", "rail"}
 #: keys that are plain numbers (no unit)
 PLAIN = {"factor_of_safety", "dynamic_factor", "termination_efficiency", "segments", "stations",
          "rolling_resistance", "plies", "rows", "eps50", "friction_angle_deg", "stack_angle_deg",
@@ -46,8 +48,10 @@ PLAIN = {"factor_of_safety", "dynamic_factor", "termination_efficiency", "segmen
 DEGREES = {"friction_angle_deg", "stack_angle_deg", "direction_deg"}
 
 
-def value_text(key: str, value, units: str) -> str:
-    """One input value as display text."""
+def value_text(key: str, value, units: str, parent: str = "") -> str:
+    """One input value as display text (``parent``: the table holding ``key``)."""
+    if parent in SECTION_TABLES and key in ("width", "depth"):
+        key = "diameter"  # any key shown as a section size
     if value is None:
         return "–"
     if isinstance(value, bool):
@@ -71,20 +75,23 @@ def value_text(key: str, value, units: str) -> str:
     return str(value)
 
 
-def _rows(prefix: str, obj, units: str, out: list[tuple[str, str]]) -> None:
+def _rows(prefix: str, obj, units: str, out: list[tuple[str, str]], named: bool = False) -> None:
     if isinstance(obj, dict):
+        parent = prefix.rsplit(".", 1)[-1]
         for k, v in obj.items():
-            if v is None or (isinstance(v, dict) and all(x is None for x in v.values())):
+            if v is None or v == [] or (isinstance(v, dict) and all(x is None for x in v.values())):
                 continue  # unset options are not echoed
+            if named and k == "name":
+                continue  # already the row label
             path = f"{prefix}.{k}" if prefix else k
             if isinstance(v, dict):
                 _rows(path, v, units, out)
             elif isinstance(v, list) and v and all(isinstance(x, dict) for x in v):
                 for i, x in enumerate(v):
                     label = x.get("name") if isinstance(x.get("name"), str) else str(i + 1)
-                    _rows(f"{path}[{label}]", x, units, out)
+                    _rows(f"{path}[{label}]", x, units, out, named=label != str(i + 1))
             else:
-                out.append((path, value_text(k, v, units)))
+                out.append((path, value_text(k, v, units, parent)))
 
 
 def input_tables(inputs: dict, units: str) -> str:
@@ -100,7 +107,7 @@ def input_tables(inputs: dict, units: str) -> str:
             for i, x in enumerate(body):
                 label = x.get("name") if isinstance(x, dict) and isinstance(x.get("name"), str) \
                     else str(i + 1)
-                _rows(label, x, units, rows)
+                _rows(label, x, units, rows, named=label != str(i + 1))
         if not rows:
             continue
         html.append(f"<h3>{escape(section)}</h3><table class='inputs'><tbody>")

@@ -23,6 +23,8 @@ GROUND_EDGE = "#7a6a4a"
 GROUND_FILL = "#e2d6b6"
 SERIES = ("#33506b", "#b4573a", "#4f7d4a", "#8a6d1f", "#6b2f7a", "#2f7a78", "#7a2f45")
 PASS_COLOUR, FAIL_COLOUR, NONE_COLOUR = "#4f7d4a", "#a8322d", "#b8ad98"
+#: light PNG compression: the report is written at the end of every run
+FAST_PNG = {"compress_level": 3}
 
 
 def _figure(size=(900, 480), dpi=100, axes=1, projection=None):
@@ -47,7 +49,7 @@ def _figure(size=(900, 480), dpi=100, axes=1, projection=None):
 def _save(fig, path: Path) -> Path:
     path.parent.mkdir(parents=True, exist_ok=True)
     fig.subplots_adjust(left=0.1, right=0.97, bottom=0.14, top=0.88, wspace=0.35)
-    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png")
+    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png", pil_kwargs=FAST_PNG)
     return path
 
 
@@ -76,7 +78,7 @@ def slack_budget(path: Path, budget: dict, units: str) -> Path | None:
     lo, hi = min(0.0, vals.min()), max(vals.max(), 1e-9)
     ax.set_xlim(lo - 0.05 * (hi - lo), hi + 0.3 * (hi - lo))
     fig.subplots_adjust(left=0.38, bottom=48 / fig.bbox.height, top=1 - 32 / fig.bbox.height)
-    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png")
+    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png", pil_kwargs=FAST_PNG)
     return path
 
 
@@ -130,7 +132,7 @@ def posts_and_footings(path: Path, results: Results, st: Station, units: str) ->
     ax.set_ylabel(f"height above grade [{ul}]", color=INK)
     ax.set_title("Bending moment, larger end of each element", color=INK, loc="left",
                  fontsize=10)
-    ax.legend(frameon=False, fontsize=7)
+    ax.legend(frameon=False, fontsize=7, loc="upper right")
     for i, (name, (depth, p)) in enumerate(curves.items()):
         bx.plot(p / fp, depth / fl, color=SERIES[i % len(SERIES)], marker="o", markersize=3,
                 linewidth=1.6, label=name)
@@ -139,11 +141,11 @@ def posts_and_footings(path: Path, results: Results, st: Station, units: str) ->
     bx.set_ylabel(f"depth below grade [{ul}]", color=INK)
     bx.set_title("Soil reaction along each footing", color=INK, loc="left", fontsize=10)
     if curves:
-        bx.legend(frameon=False, fontsize=7)
+        bx.legend(frameon=False, fontsize=7, loc="upper right")
     fig.suptitle(f"Station {st.index}, rider {convert(st.along, 'length', units):.3g} {ul} along",
                  color=INK, x=0.02, ha="left", fontsize=10)
     fig.subplots_adjust(left=0.08, right=0.98, bottom=0.12, top=0.86, wspace=0.28)
-    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png")
+    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png", pil_kwargs=FAST_PNG)
     return path
 
 
@@ -260,7 +262,7 @@ def structure_3d(path: Path, results: Results, st: Station, util: dict[str, floa
     ax.set_title("")
     fig.text(0.01, 0.97, f"Deformed structure at station {st.index} (true scale): green members "
              f"pass their checks, red fail, grey unchecked", color=INK, fontsize=9, va="top")
-    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png")
+    fig.savefig(path, dpi=fig.dpi, facecolor=PAPER, format="png", pil_kwargs=FAST_PNG)
     return path
 
 
@@ -282,5 +284,5 @@ def ride_speed(path: Path, ride: dict, units: str) -> Path | None:
     ax.set_xlabel(f"distance along the line [{ul}]", color=INK)
     ax.set_ylabel(f"speed [{uv}]", color=INK)
     ax.set_title("Rider speed along the line", color=INK, loc="left", fontsize=10)
-    ax.legend(frameon=False, fontsize=8)
+    ax.legend(frameon=False, fontsize=8, loc="upper left")
     return _save(fig, path)

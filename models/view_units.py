@@ -69,6 +69,8 @@ def number(x: float | None, digits: int = 3) -> str:
     if x == 0:
         return "0"
     exponent = math.floor(math.log10(abs(x)))
+    if abs(round(x, digits - 1 - exponent)) >= 10.0 ** (exponent + 1):
+        exponent += 1  # 9.9999 rounds up to 10.0
     places = max(digits - 1 - exponent, 0)
     if exponent >= 9 or exponent < -4:
         return f"{x:.{digits - 1}e}"
