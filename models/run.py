@@ -61,16 +61,28 @@ def station_coordinates(system: System, state: State, line_name: str, start_offs
 
 
 def _at_temperature(system: System, installed: State, d_t: float) -> State:
-    """The installed state with every line's cable at a temperature change ``d_t``."""
-    for line in system.lines.values():
-        system.model.group(line.group).dT[:] = d_t
+    """The installed state with every line's cable at a temperature change ``d_t``.
+
+    The change is applied in steps of at most 5 K, each solve warm-started
+    from the last (a cable that suddenly grows by its whole thermal strain
+    can leave Newton too far from the new sag).
+    """
+    groups = [system.model.group(line.group) for line in system.lines.values()]
     if d_t == 0.0:
+        for g in groups:
+            g.dT[:] = 0.0
         return installed
+    state = installed
+    count = max(1, int(np.ceil(abs(d_t) / 5.0)))
     try:
-        return solve(system.model, state=installed, steps=2)
+        for k in range(1, count + 1):
+            for g in groups:
+                g.dT[:] = d_t * k / count
+            state = solve(system.model, state=state, steps=1)
     except FemError as exc:
         raise InputError(f"no installed equilibrium at a temperature change of {d_t:+.1f} K: {exc}",
                          "settings.use_temperatures") from None
+    return state
 
 
 def analyse(scenario: Scenario, stations: int | None = None,

@@ -1,10 +1,14 @@
 """Slack budget: how much of the loaded sag each part of the system adds.
 
 At the governing station (largest sag of the heaviest rider, static, at the
-installation temperature) the structure is re-solved with one part at a time
-made (nearly) rigid; that part's share is the sag it removes. The geometric
-share is the sag with every part rigid (rigid anchors, inextensible cable).
-What the shares do not add up to is reported as the interaction of the parts.
+installation temperature) the structure is re-solved with parts made (nearly)
+rigid. The geometric share is the sag with every part rigid (rigid anchors,
+inextensible cable, the same cut length); then the parts are given back their
+flexibility one after another, from the cable outward (cable, post, fasteners,
+soil, guys, braces), and each part's share is the sag it adds. The shares add
+up to the loaded sag exactly. Sag grows roughly as the square root of the
+slack fed into the line, so a part's share depends on what was released
+before it; the order is stated with the table.
 """
 from __future__ import annotations
 
@@ -14,6 +18,7 @@ import numpy as np
 
 from fem import solve
 from fem.errors import FemError
+from models.errors import InputError
 from models.installed import install
 from models.stations import place_rider, record
 
@@ -37,15 +42,13 @@ class SlackBudget:
     loaded_sag: float
     geometry: float
     shares: dict[str, float]
-    interaction: float
     notes: list[str]
 
     def to_dict(self) -> dict:
         return {"pass": "ride_heavy", "station": self.station, "along": self.along,
                 "loaded_sag": self.loaded_sag,
                 "shares": {"geometry (rigid anchors, inextensible cable)": self.geometry,
-                           **{PART_LABELS[k]: v for k, v in self.shares.items()},
-                           "interaction of the parts": self.interaction},
+                           **{PART_LABELS[k]: v for k, v in self.shares.items()}},
                 "notes": self.notes}
 
 
@@ -76,15 +79,15 @@ def slack_budget(result) -> SlackBudget | None:
     st = heavy.stations[k]
     parts = parts_present(result.system)
     notes = []
+    sags = []
     try:
-        geometry = _sag_with(result, frozenset(parts), st.s, heavy.weight)
-        shares = {}
-        for part in parts:
-            shares[part] = st.sag - _sag_with(result, frozenset({part}), st.s, heavy.weight)
-    except FemError as exc:
-        notes.append(f"a re-solve with a rigid part failed: {exc}")
-        return SlackBudget(k, st.along, st.sag, float("nan"), {}, float("nan"), notes)
-    interaction = st.sag - geometry - sum(shares.values())
-    notes.append("each share is the sag removed by making that part alone rigid "
-                 "(stiffness x 100, so each share is 99 % of the full one); the geometric share has every part rigid")
-    return SlackBudget(k, st.along, st.sag, geometry, shares, interaction, notes)
+        for i in range(len(parts)):
+            sags.append(_sag_with(result, frozenset(parts[i:]), st.s, heavy.weight))
+    except (FemError, InputError) as exc:
+        notes.append(f"a re-solve with rigid parts failed: {exc}")
+        return SlackBudget(k, st.along, st.sag, float("nan"), {}, notes)
+    sags.append(st.sag)
+    shares = {part: sags[i + 1] - sags[i] for i, part in enumerate(parts)}
+    notes.append("parts made rigid by stiffness x 100 (each keeps 1 % of its give), released "
+                 "in the order " + ", ".join(PART_LABELS[p] for p in parts))
+    return SlackBudget(k, st.along, st.sag, sags[0], shares, notes)

@@ -65,7 +65,7 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         failed += not d["passed"]
         util = d["utilization"]
         util_s = f"{util:5.2f}" if util is not None else "  -  "
-        lines.append(f"    {mark} {util_s}  {d['description']}: {_value(d['demand'], d['kind'], units)} "
+        lines.append(f"    {mark} {util_s}  {d['where']}: {d['description']}: {_value(d['demand'], d['kind'], units)} "
                      f"vs {_value(d['capacity'], d['kind'], units)}")
     lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
     lines.append(f"  results: {out_dir}")

@@ -102,3 +102,4 @@ def test_sag_with_stretch_is_the_pythagoras_triangle():
     half0 = 0.5 * (s + line.L0 - s + c)
     height0 = 2 * np.sqrt(half0 * (half0 - s) * (half0 - line.L0 + s) * (half0 - c)) / c
     assert height > height0 * 1.01
+

@@ -1,0 +1,87 @@
+"""`spanstay run` end to end on an example, with summary.json checked by hand values."""
+import csv
+import json
+import math
+from pathlib import Path
+
+import pytest
+from click.testing import CliRunner
+
+from models.cli import main
+
+EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "orchard-family-line.toml"
+LBF = 4.4482216152605  # N per lbf (NIST SP 811)
+FT = 0.3048            # m per ft (exact)
+
+
+@pytest.fixture(scope="module")
+def run_folder(tmp_path_factory):
+    out = tmp_path_factory.mktemp("run") / "results"
+    result = CliRunner().invoke(main, ["run", str(EXAMPLE), "--out", str(out), "--stations", "6",
+                                       "--units", "si"])
+    assert result.exit_code == 0, result.output
+    return out, result.output
+
+
+def test_terminal_summary_has_checks_and_cautions(run_folder):
+    _, text = run_folder
+    assert "checks pass" in text
+    assert "CAUTION: Results are for preliminary design only." in text
+    assert "licensed" in text and "proof-load" in text
+
+
+def test_summary_matches_hand_values(run_folder):
+    out, _ = run_folder
+    summary = json.loads((out / "summary.json").read_text())
+    assert summary["cautions"]
+    # the installed sag is the scenario's 1.0 ft (form-finding with deforming anchors)
+    assert summary["installed"]["lines"]["family"]["sag"] == pytest.approx(1.0 * FT, rel=1e-3)
+    # riders: 220 lbf static, x 1.5 dynamic factor for the design pass (scenario values)
+    assert summary["passes"]["ride_heavy"]["weight"] == pytest.approx(220 * LBF, rel=1e-9)
+    assert summary["passes"]["design"]["weight"] == pytest.approx(1.5 * 220 * LBF, rel=1e-9)
+    for p in summary["passes"].values():
+        assert p["stations"] == 6
+    # cable check capacity: 3/8 in 7x19 minimum breaking strength 14,400 lb
+    # (FAA AC 43.13-1B Table 7-3) over a factor of safety of 5 (common practice)
+    cable = [c for c in summary["checks"] if c["id"].endswith(".tension") and c["part"] == "cable"]
+    assert cable, [c["id"] for c in summary["checks"]]
+    assert cable[0]["capacity"] == pytest.approx(14400 * LBF / 5, rel=1e-6)
+    # the design pass pulls harder than the static heavy pass (statics: more weight, colder)
+    heavy = max(summary["passes"]["ride_heavy"]["tension_max"])
+    design = max(summary["passes"]["design"]["tension_max"])
+    assert design > heavy
+    # energy: no rider arrives faster than a frictionless fall from the first station's
+    # height to the last one's (v^2 = 2 g dh)
+    for key, ride in summary["ride"].items():
+        if key == "clearance":
+            continue
+        z = [p[2] for p in summary["passes"]["ride_heavy" if key == "heaviest" else "ride_light"]["rider_xyz"]]
+        if ride["reaches_end"]:
+            assert ride["arrival_speed"] <= math.sqrt(2 * 9.80665 * (z[0] - z[-1])) + 1e-9
+    # slack budget: the shares add up to the loaded sag
+    sb = summary["slack_budget"]
+    assert sum(sb["shares"].values()) == pytest.approx(sb["loaded_sag"], rel=1e-9)
+
+
+def test_files_in_the_results_folder(run_folder):
+    out, _ = run_folder
+    summary = json.loads((out / "summary.json").read_text())
+    rows = list(csv.DictReader((out / "stations.csv").open()))
+    assert len(rows) == sum(p["stations"] for p in summary["passes"].values())
+    vtus = sorted((out / "vtk").glob("*.vtu"))
+    assert len(vtus) == summary["passes"]["ride_heavy"]["stations"]
+    assert (out / "vtk" / "ride_heavy.pvd").read_text().count("<DataSet") == len(vtus)
+    for name in ("ride_profile", "speed", "tension"):
+        assert (out / summary["plots"][name]).stat().st_size > 1000
+    assert not any(p.name.startswith(".results.") for p in out.parent.iterdir())
+
+
+def test_bad_scenario_exits_2_without_traceback(tmp_path):
+    bad = tmp_path / "bad.toml"
+    bad.write_text(EXAMPLE.read_text().replace('sag = "1.0 ft"', 'sag = "1.0"'))
+    out = tmp_path / "out"
+    result = CliRunner().invoke(main, ["run", str(bad), "--out", str(out)])
+    assert result.exit_code == 2
+    assert "Traceback" not in result.output
+    assert "line[1]" in result.output or "sag" in result.output
+    assert not out.exists()
