@@ -48,6 +48,8 @@ PERMANENT_DURATION = "permanent"
 TILT_LIMIT = math.radians(1.0)
 #: Horizontal motion at grade accepted by IBC 2021 §1806.3.4 for doubled lateral bearing.
 IBC_DOUBLED_MOTION = 0.5 * 0.0254
+#: p/p_u from which the soil at a depth is counted as at its limit (reported in notes)
+SOIL_AT_LIMIT = 0.95
 #: Line attachment deflection limit as a fraction of its height above grade: a judgement.
 DEFLECTION_RATIO = 40.0
 #: NDS Appendix G buckling length coefficient, post fixed at the base and free at the
@@ -494,8 +496,9 @@ def _tilt(state: State, node: int) -> float:
     return float(np.arccos(np.clip(state.rotation[node][2, 2], -1.0, 1.0)))
 
 
-def _ground_actions(system: System, placed, state: State) -> tuple[float, float, float]:
-    """Horizontal shear and moment (resultants) just above grade, and the largest p/p_u."""
+def _ground_actions(system: System, placed, state: State) -> tuple[float, float, float, float]:
+    """Horizontal shear and moment (resultants) just above grade, the largest p/p_u, and
+    the embedded length where the soil is at its limit (p/p_u >= SOIL_AT_LIMIT)."""
     from models.footing import footing_response
 
     vx = footing_response(placed, system.model, state, (1.0, 0.0))
@@ -505,7 +508,10 @@ def _ground_actions(system: System, placed, state: State) -> tuple[float, float,
     trib0 = float(placed.curves.tributary[placed.spring_node == 0].sum())
     V = float(np.hypot(vx.shear[0] + vx.p[0] * trib0, vy.shear[0] + vy.p[0] * trib0))
     M = float(np.hypot(vx.moment[0], vy.moment[0]))
-    return V, M, max(vx.max_ratio, vy.max_ratio)
+    trib = np.bincount(placed.spring_node, weights=placed.curves.tributary,
+                       minlength=placed.nodes.size)
+    at_limit = float(trib[vx.ratio >= SOIL_AT_LIMIT].sum())
+    return V, M, max(vx.max_ratio, vy.max_ratio), at_limit
 
 
 def _has_soil_limit(placed) -> bool:
@@ -544,14 +550,18 @@ def soil_checks(system: System, anchor, state: State, cache: dict | None = None)
     if placed is None:
         return out
     fs = spec.footing
-    V, M, ratio = _ground_actions(system, placed, state)
+    V, M, ratio, at_limit = _ground_actions(system, placed, state)
     if _has_soil_limit(placed):
         out.append(Check(f"anchor.{name}.soil.pressure", "soil", name,
                          "largest soil reaction against its p-y limit (p / p_u)", ratio, 1.0,
                          "ratio",
                          source="p-y curves: API RP 2A sand, Matlock (1970) clay",
-                         note="API sand curves approach their limit A p_u without reaching it: "
-                              "a ratio near 1 means the soil near grade is at its limit"))
+                         note=f"soil at its limit (p/p_u >= {SOIL_AT_LIMIT:g}) over "
+                              f"{at_limit:.2f} m "
+                              f"of the {placed.footing.depth:.2f} m embedment; API sand curves "
+                              "approach their limit without reaching it, so a ratio near 1 is "
+                              "soil yielding near grade: see the tilt and IBC checks for "
+                              "the footing's margin"))
     if fs.double_lateral_bearing:
         move = float(np.hypot(*state.translation[anchor.grade_node][:2]))
         out.append(Check(f"anchor.{name}.footing.ground_motion", "footing", name,
