@@ -197,8 +197,12 @@ def _installed_table(summary: dict, units: str) -> str:
             + "</tbody></table>")
 
 
-def _own_figures(out_dir: Path, summary: dict, units: str) -> tuple[dict[str, Path], str]:
-    """Draw the report's figures into out_dir/plots; returns them and a note on the station."""
+def _own_figures(out_dir: Path, summary: dict, units: str) -> tuple[dict[str, Path], list[str]]:
+    """Draw the report's figures into out_dir/plots; returns them and notes for the reader.
+
+    A figure that cannot be drawn is left out with a note (the report must be
+    written at the end of every run, whatever the results hold).
+    """
     from models.errors import InputError
     from models import report_plots as rp
     from models.view_data import load_results, utilization_by_part
@@ -206,32 +210,38 @@ def _own_figures(out_dir: Path, summary: dict, units: str) -> tuple[dict[str, Pa
     plots = out_dir / "plots"
     plots.mkdir(parents=True, exist_ok=True)
     made: dict[str, Path] = {}
+    notes: list[str] = []
+
+    def draw(key: str, make) -> None:
+        try:
+            p = make()
+        except Exception as exc:  # noqa: BLE001 - reported in the page, never fatal
+            notes.append(f"The figure '{key}' could not be drawn ({type(exc).__name__}: {exc}).")
+            return
+        if p:
+            made[key] = p
+
     budget = summary.get("slack_budget")
     if isinstance(budget, dict):
-        p = rp.slack_budget(plots / "slack_budget.png", budget, units)
-        if p:
-            made["slack_budget"] = p
+        draw("slack_budget", lambda: rp.slack_budget(plots / "slack_budget.png", budget, units))
     try:
         results = load_results(out_dir)
+        k = results.worst_station()
+        st = results.station(k)
     except InputError as exc:
-        return made, f"No 3D results to draw from: {exc}"
-    k = results.worst_station()
-    st = results.station(k)
-    note = (f"Figures of one station show pass '{results.pass_label}', station {k} of "
-            f"0..{results.n_stations - 1} ({show(st.along, 'length', units)} along), the station "
-            f"nearest the governing check.")
-    made["structure_3d"] = rp.structure_3d(plots / "structure_3d.png", results, st,
-                                           utilization_by_part(results), units)
+        return made, notes + [f"No 3D results to draw from: {exc}"]
+    notes.insert(0, f"Figures of one station show pass '{results.pass_label}', station {k} of "
+                    f"0..{results.n_stations - 1} ({show(st.along, 'length', units)} along), the "
+                    f"station nearest the governing check.")
+    draw("structure_3d", lambda: rp.structure_3d(plots / "structure_3d.png", results, st,
+                                                 utilization_by_part(results), units))
     n = results.n_stations
     picks = sorted({0, n // 4, n // 2, (3 * n) // 4, n - 1, k} & set(range(n)))
-    p = rp.cable_profiles(plots / "cable_profiles.png", results,
-                          [results.station(i) for i in picks], units)
-    if p:
-        made["cable_profiles"] = p
-    p = rp.posts_and_footings(plots / "posts_and_footings.png", results, st, units)
-    if p:
-        made["posts_and_footings"] = p
-    return made, note
+    draw("cable_profiles", lambda: rp.cable_profiles(
+        plots / "cable_profiles.png", results, [results.station(i) for i in picks], units))
+    draw("posts_and_footings", lambda: rp.posts_and_footings(
+        plots / "posts_and_footings.png", results, st, units))
+    return made, notes
 
 
 def write_report(out_dir: Path, summary: dict) -> Path:
@@ -242,7 +252,9 @@ def write_report(out_dir: Path, summary: dict) -> Path:
     out_dir
         The results folder (summary.json, vtk/, plots/).
     summary
-        The summary.json content.
+        The summary.json content. Its "plots" gains the report's own figures
+        (structure_3d, slack_budget, cable_profiles, posts_and_footings) so a
+        caller writing summary.json afterwards lists them too.
 
     Returns
     -------
@@ -251,17 +263,25 @@ def write_report(out_dir: Path, summary: dict) -> Path:
     """
     out_dir = Path(out_dir)
     units = "us" if summary.get("units") == "us" else "si"
-    own, station_note = _own_figures(out_dir, summary, units)
+    own, notes = _own_figures(out_dir, summary, units)
     run_plots = {}
-    for name, rel in (summary.get("plots") or {}).items():
-        path = out_dir / rel
-        if path.is_file() and path.suffix.lower() == ".png":
-            run_plots[name] = path
+    for key, rel in (summary.get("plots") or {}).items():
+        path = out_dir / str(rel)
+        if key not in own and path.is_file() and path.suffix.lower() == ".png":
+            run_plots[key] = path
     if "speed" not in run_plots and isinstance(summary.get("ride"), dict):
         from models import report_plots as rp
-        p = rp.ride_speed(out_dir / "plots" / "speed.png", summary["ride"], units)
+        try:
+            p = rp.ride_speed(out_dir / "plots" / "speed.png", summary["ride"], units)
+        except Exception as exc:  # noqa: BLE001 - reported in the page, never fatal
+            p = None
+            notes.append(f"The speed figure could not be drawn ({type(exc).__name__}: {exc}).")
         if p:
-            run_plots["speed"] = p
+            own["speed"] = run_plots["speed"] = p
+    if not isinstance(summary.get("plots"), dict):
+        summary["plots"] = {}
+    for key, path in own.items():  # the same figures as PNG files in the results folder
+        summary["plots"].setdefault(key, f"plots/{path.name}")
 
     project = summary.get("project") or {}
     name = project.get("name") or "spanstay results"
@@ -295,8 +315,7 @@ def write_report(out_dir: Path, summary: dict) -> Path:
     parts.append(check_table(checks, units))
 
     parts.append("<h2>The structure</h2>")
-    if station_note:
-        parts.append(f"<p>{escape(station_note)}</p>")
+    parts += [f"<p>{escape(n)}</p>" for n in notes]
     for key in ("structure_3d", "posts_and_footings"):
         if key in own:
             parts.append(_figure(own[key], OWN_FIGURES[key]))

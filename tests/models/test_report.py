@@ -168,3 +168,19 @@ def test_headless_screenshot_is_not_blank(report, tmp_path):
                    check=True, timeout=60, capture_output=True)
     grey = np.asarray(Image.open(shot).convert("L"), float)
     assert np.mean(np.abs(grey - np.median(grey)) > 10) > 0.01
+
+
+def test_report_figures_are_listed_in_the_summary_plots(report):
+    folder, summary, _, _ = report
+    for name in ("structure_3d", "slack_budget", "cable_profiles", "posts_and_footings"):
+        assert (folder / summary["plots"][name]).is_file()
+
+
+def test_a_figure_that_cannot_be_drawn_is_noted_not_fatal(report, tmp_path):
+    folder = Path(shutil.copytree(report[0], tmp_path / "results"))
+    summary = json.loads((folder / "summary.json").read_text())
+    summary["slack_budget"]["shares"] = {"cable stretch": "not a number"}
+    text = write_report(folder, summary).read_text(encoding="utf-8")
+    assert "could not be drawn" in text
+    for check in summary["checks"]:
+        assert check["id"] in text
