@@ -161,8 +161,10 @@ def cable_profiles(path: Path, results: Results, stations: list[Station], units:
     lines = model.get("lines") or {}
     if not lines or not stations:
         return None
-    name = next(iter(lines))
+    name = results.rider_line()
     chain = _line_chain(results, name)
+    if not chain:
+        return None
     a = np.asarray(model.get("line_start_xyz") or stations[0].points[chain[0]], float)
     b = np.asarray(model.get("line_end_xyz") or stations[0].points[chain[-1]], float)
     d = (b - a)[:2] / max(np.linalg.norm((b - a)[:2]), 1e-12)
@@ -230,13 +232,12 @@ def structure_3d(path: Path, results: Results, st: Station, util: dict[str, floa
         width = 5.0 if kind in FOOTING_KINDS else 3.0 if kind in MEMBER_KINDS else 1.4
         ax.plot(*_broken(pos[st.conn[idx]]), color=colour, linewidth=width,
                 solid_capstyle="butt")
-    hang = float(results.summary.get("model", {}).get("hang_distance") or 0.0) / fl
-    for rec in (results.summary.get("model", {}).get("lines") or {}).values():
-        r = rec.get("rider_node")
-        if r is not None:
-            p = pos[int(r)]
-            ax.plot([p[0], p[0]], [p[1], p[1]], [p[2], p[2] - hang], color="#6b2f7a", linewidth=2)
-            ax.scatter([p[0]], [p[1]], [p[2]], color="#6b2f7a", marker="v", s=40)
+    from models.view_scene import rider_points
+
+    for top, feet, _ in rider_points(results, pos * fl):
+        top, feet = top / fl, feet / fl
+        ax.plot([top[0], feet[0]], [top[1], feet[1]], [top[2], feet[2]], color="#6b2f7a", linewidth=2)
+        ax.scatter([top[0]], [top[1]], [top[2]], color="#6b2f7a", marker="v", s=40)
     prof = np.asarray(results.summary.get("model", {}).get("ground_profile") or [], float)
     a = results.summary.get("model", {}).get("line_start_xyz")
     b = results.summary.get("model", {}).get("line_end_xyz")

@@ -102,6 +102,14 @@ class Results:
             return int(np.nanargmax(np.asarray(tmax, float)))
         return self.n_stations // 2
 
+    def rider_line(self) -> str | None:
+        """Name of the line the rider rides (the scenario's rider.line, else the first line)."""
+        lines = list((self.summary.get("model", {}).get("lines") or {}))
+        ridden = ((self.summary.get("inputs") or {}).get("rider") or {}).get("line")
+        if ridden in lines:
+            return ridden
+        return lines[0] if lines else None
+
     def part_of_group(self) -> dict[int, dict]:
         """fem group index -> part record."""
         return {int(p["group_index"]): p for p in self.parts if p.get("group_index") is not None}

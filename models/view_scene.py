@@ -259,14 +259,13 @@ def ground_strip(results: Results, st: Station) -> tuple[np.ndarray, np.ndarray]
 
 
 def rider_points(results: Results, pos: np.ndarray) -> list[tuple[np.ndarray, np.ndarray, str]]:
-    """(trolley point, feet point, line name) of every line's rider."""
+    """(trolley point, feet point, line name) of the rider on the ridden line."""
     lines = results.summary.get("model", {}).get("lines", {}) or {}
     hang = float(results.summary.get("model", {}).get("hang_distance") or 0.0)
-    out = []
-    for name, rec in lines.items():
-        node = rec.get("rider_node")
-        if node is None or not 0 <= int(node) < pos.shape[0]:
-            continue
-        p = pos[int(node)]
-        out.append((p, p - np.array([0.0, 0.0, hang]), name))
-    return out
+    name = results.rider_line()
+    rec = lines.get(name) or {}
+    node = rec.get("rider_node")
+    if node is None or not 0 <= int(node) < pos.shape[0]:
+        return []
+    p = pos[int(node)]
+    return [(p, p - np.array([0.0, 0.0, hang]), name)]
