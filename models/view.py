@@ -124,8 +124,8 @@ class Scene:
         out["rider"] = pv.merge(glyphs) if glyphs else pv.PolyData()
         hang = float(res.summary["model"].get("hang_distance") or 0.0)
         unit = scale("length", res.units)[1]
-        self.rider_label = ([f"rider, feet {number(convert(hang, 'length', res.units))} {unit} "
-                             f"below the line"], [riders[0][1]]) if riders else None
+        self.rider_label = ([f"feet {number(convert(hang, 'length', res.units))} {unit} below "
+                             f"the line"], [riders[0][1]]) if riders else None
         return out
 
     def add_to(self, plotter, k: int) -> None:
@@ -138,7 +138,8 @@ class Scene:
         plotter.add_mesh(self.meshes["outline"], color=OUTLINE, opacity=0.45, line_width=1,
                          name="outline")
         sbar = dict(title=self.title, color=INK, vertical=True, position_x=0.9, position_y=0.2,
-                    height=0.6, width=0.035, n_labels=5,
+                    height=0.6, width=0.035, n_labels=5, title_font_size=self._font(16),
+                    label_font_size=self._font(14),
                     fmt="%.0f" if max(abs(self.clim[0]), abs(self.clim[1])) >= 100 else "%.3g")
         common = dict(scalars="value", cmap=_cmap(self.field), clim=self.clim, nan_color=NO_VALUE,
                       smooth_shading=False, ambient=0.3, diffuse=0.75, specular=0.05)
@@ -147,9 +148,10 @@ class Scene:
         plotter.add_mesh(self.meshes["ropes"], show_scalar_bar=False, name="ropes", **common)
         plotter.add_mesh(self.meshes["rider"], color=RIDER, line_width=3, name="rider")
         self._label(plotter)
-        plotter.add_text(self._caption(k), position="upper_left", font_size=10, color=INK,
+        plotter.add_text(self._caption(k), position="upper_left", font_size=self._font(10), color=INK,
                          name="caption")
-        plotter.add_text(CAUTION, position="lower_left", font_size=8, color=INK, name="caution")
+        plotter.add_text(CAUTION, position="lower_left", font_size=self._font(8), color=INK,
+                         name="caution")
         self._ruler(plotter, k)
 
     def update(self, plotter, k: int) -> None:
@@ -157,15 +159,19 @@ class Scene:
         new = self.build(k)
         for key in ("members", "ropes", "rider"):
             self.meshes[key].copy_from(new[key], deep=True)
-        plotter.add_text(self._caption(k), position="upper_left", font_size=10, color=INK,
+        plotter.add_text(self._caption(k), position="upper_left", font_size=self._font(10), color=INK,
                          name="caption")
         self._label(plotter)
+
+    def _font(self, points: int) -> int:
+        """Font size for a 1200 px wide picture, scaled to the picture's width."""
+        return max(6, int(round(points * (0.4 + 0.6 * self.opts.size[0] / 1200))))
 
     def _label(self, plotter) -> None:
         if self.rider_label is None:
             return
         text, where = self.rider_label
-        plotter.add_point_labels(np.asarray(where), text, font_size=11, text_color=RIDER,
+        plotter.add_point_labels(np.asarray(where), text, font_size=self._font(11), text_color=RIDER,
                                  shape_color=BACKGROUND, shape_opacity=0.7, show_points=False,
                                  always_visible=True, name="rider_label")
 

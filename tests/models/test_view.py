@@ -163,6 +163,10 @@ def test_bad_input_exits_2_with_a_message(results_dir, tmp_path):
     assert res.exit_code == 2 and "summary.json" in res.output
     res = _run(results_dir, "--station", STATIONS, "--png", tmp_path / "x.png")
     assert res.exit_code == 2 and f"0 to {STATIONS - 1}" in res.output
+    res = _run(results_dir, "--station", 1, "--worst", "--png", tmp_path / "x.png")
+    assert res.exit_code == 2 and "not both" in res.output
+    res = _run(results_dir, "--exaggerate", -2, "--png", tmp_path / "x.png")
+    assert res.exit_code == 2 and "positive" in res.output
     res = _run(results_dir, "--color", "sparkle", "--png", tmp_path / "x.png")
     assert res.exit_code == 2
     for known in ("utilization", "N", "My", "Mz", "tension", "soil"):
