@@ -122,7 +122,8 @@ def timber_section(section: SectionSpec, species: str | None, grade: str | None,
 
 
 def add_pinned_member(model: Model, node1: int, offset1, node2: int, offset2,
-                      section: BeamSection, name: str, elements: int = MEMBER_ELEMENTS):
+                      section: BeamSection, name: str, elements: int = MEMBER_ELEMENTS,
+                      stiffen: float = 1.0):
     """A beam line between two points pinned to two nodes.
 
     The member runs from ``coords[node1] + offset1`` to ``coords[node2] +
@@ -130,7 +131,9 @@ def add_pinned_member(model: Model, node1: int, offset1, node2: int, offset2,
     = the offset) to the member's end node: stiff in translation, free to
     rotate about the horizontal axis across the member (the hinge), stiff in
     the other two rotations. Returns (member node ids, beam group name, link
-    group name, length, unit axis).
+    group name, length, unit axis). ``stiffen`` is the factor already applied to
+    the section's moduli (slack budget): the pins keep the member's own stiffness
+    times PIN_STIFFNESS_RATIO, so a rigid member does not leave round-off behind.
     """
     p1 = model.coords[node1] + np.asarray(offset1, float)
     p2 = model.coords[node2] + np.asarray(offset2, float)
@@ -141,8 +144,8 @@ def add_pinned_member(model: Model, node1: int, offset1, node2: int, offset2,
     t = np.linspace(0.0, 1.0, elements + 1)
     nodes = model.add_nodes(p1[None, :] + t[:, None] * chord[None, :])
     model.add_beams(nodes[:-1], nodes[1:], section, orientation=axes[1], name=name)
-    E = float(np.max(section.E))
-    G = float(np.max(section.G))
+    E = float(np.max(section.E)) / stiffen
+    G = float(np.max(section.G)) / stiffen
     k_t = PIN_STIFFNESS_RATIO * E * float(np.max(section.A)) / length
     k_r = PIN_STIFFNESS_RATIO * max(E * float(np.max(section.Iy)), E * float(np.max(section.Iz)),
                                     G * float(np.max(section.J))) / length
@@ -196,7 +199,7 @@ def add_kicker(model: Model, built, spec: AnchorSpec, pull, rigid: frozenset[str
             model.add_springs(block, d, LinearLaw(k), name=f"{name}.block_{d}")
             block_groups.append(f"{name}.block_{d}")
     nodes, gname, links, length, axis = add_pinned_member(model, node, arm, block, np.zeros(3),
-                                                          section, name)
+                                                          section, name, stiffen=stiffen)
     strut = BuiltMember(gname, nodes, links, length, axis, brace.member, brace.species,
                         brace.grade, E, node, block, model.coords[node] + arm, foot)
     kicker = BuiltKicker("kicker", where, strut, block, block_groups, area, direction,
@@ -205,12 +208,13 @@ def add_kicker(model: Model, built, spec: AnchorSpec, pull, rigid: frozenset[str
 
 
 def _add_wire(model: Model, node1: int, offset1, node2: int, offset2, EA: float,
-              pretension: float, name: str) -> tuple[str, list[str]]:
-    """A tension-only wire between two post points, each end on an eye link."""
+              pretension: float, name: str, stiffen: float = 1.0) -> tuple[str, list[str]]:
+    """A tension-only wire between two post points, each end on an eye link
+    (``stiffen``: factor already in ``EA``; the eyes keep the rope's own)."""
     p1 = model.coords[node1] + offset1
     p2 = model.coords[node2] + offset2
     chord = float(np.linalg.norm(p2 - p1))
-    k_eye = PIN_STIFFNESS_RATIO * EA / chord
+    k_eye = PIN_STIFFNESS_RATIO * EA / stiffen / chord
     e1, e2 = model.add_node(p1), model.add_node(p2)
     model.add_links([node1, node2], [e1, e2], (k_eye, k_eye, k_eye, 0.0, 0.0, 0.0),
                     np.stack([offset1, offset2]), 0.0, name=f"{name}.eyes")
@@ -254,7 +258,7 @@ def add_h_brace(model: Model, built, spec: AnchorSpec, ground: GroundSpec, pull,
     section, E = timber_section(brace.rail, brace.species, brace.grade, f"{where}.rail", stiffen)
     name = f"{spec.name}.rail"
     nodes, gname, links, length, axis = add_pinned_member(model, a_node, a_arm, b_node, b_arm,
-                                                          section, name)
+                                                          section, name, stiffen=stiffen)
     rail = BuiltMember(gname, nodes, links, length, axis, brace.rail, brace.species, brace.grade,
                        E, a_node, b_node, model.coords[a_node] + a_arm,
                        model.coords[b_node] + b_arm)
@@ -273,7 +277,8 @@ def add_h_brace(model: Model, built, spec: AnchorSpec, ground: GroundSpec, pull,
     rope = brace.diagonal_rope
     ea = rope.EA * stiffen
     wire, wire_groups = _add_wire(model, top[0], top[1], bottom[0], bottom[1], ea,
-                                  brace.diagonal_pretension or 0.0, f"{spec.name}.diagonal")
+                                  brace.diagonal_pretension or 0.0, f"{spec.name}.diagonal",
+                                  stiffen)
     h = BuiltHBrace("h-brace", where, second, rail, wire, diagonal,
                     model.coords[top[0]] + top[1], model.coords[bottom[0]] + bottom[1], ea,
                     direction, [gname, links] + wire_groups)

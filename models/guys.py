@@ -115,7 +115,9 @@ def add_guy(model: Model, post_node: int, guy: GuySpec, *, offset=(0.0, 0.0, 0.0
         raise InputError("the guy's ground anchor is at its attachment point", where)
     e = chord_vec / chord
     ea = guy.rope.EA * (RIGID if rigid else 1.0)
-    k_eye = EYE_STIFFNESS_RATIO * ea / chord
+    # from the rope's own EA even when the guy is made rigid: a link 1e7 times the guy
+    # would leave only round-off in the residual
+    k_eye = EYE_STIFFNESS_RATIO * guy.rope.EA / chord
     eye = model.add_node(eye_xyz)
     groups = [f"{name}.eye"]
     model.add_links([post_node], [eye], (k_eye, k_eye, k_eye, 0.0, 0.0, 0.0), offset, 0.0,
@@ -145,11 +147,14 @@ def add_guy(model: Model, post_node: int, guy: GuySpec, *, offset=(0.0, 0.0, 0.0
 def add_guys(model: Model, built, spec: AnchorSpec, rigid: frozenset[str]) -> list:
     """Add every guy of ``spec`` to the built post ``built`` (a BuiltAnchor).
 
-    Records the groups under ``built.groups["guy"]``, the anchor nodes in
-    ``built.guy_ground_nodes`` and the handles in ``built.guys``.
+    Records the cable groups and their elastic ground-anchor links (names
+    ending ".ground") under ``built.groups["guy"]``, the eye links under
+    ``built.groups["guy_eye"]``, the anchor nodes in ``built.guy_ground_nodes``
+    and the handles in ``built.guys``.
     """
     out = []
     names: list[str] = []
+    eyes: list[str] = []
     for i, guy in enumerate(spec.guys):
         where = f"anchor '{spec.name}'.guy[{i + 1}]"
         plan = np.asarray(guy.ground_point[:2], float) - np.array([spec.x, spec.y])
@@ -163,10 +168,12 @@ def add_guys(model: Model, built, spec: AnchorSpec, rigid: frozenset[str]) -> li
         g = add_guy(model, node, guy, offset=arm, name=f"{spec.name}.guy{i + 1}", where=where,
                     rigid="guy" in rigid)
         out.append(g)
-        names += g.groups
+        names += [n for n in g.groups if not n.endswith(".eye")]
+        eyes += [n for n in g.groups if n.endswith(".eye")]
         built.guy_ground_nodes.append(g.ground_node)
     if out:
-        built.groups["guy"] = names
+        built.groups["guy"] = names       # cables and their ".ground" anchor links
+        built.groups["guy_eye"] = eyes    # eye links on the post face (rigid hardware)
     built.guys = out
     return out
 

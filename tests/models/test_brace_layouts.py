@@ -74,3 +74,24 @@ def test_layout_parts_do_their_job(installed):
     else:
         rep = check_anchor(system.model, system.anchors["oak"], state)
         assert rep.cautions and any(c.part == "root plate" for c in rep.checks)
+
+
+@pytest.mark.parametrize("name", ["guyed-post", "h-brace"])
+def test_examples_read_and_build(name):
+    # examples/ scenarios read, pass the scenario checks and build with their guys/braces
+    from pathlib import Path
+
+    from models.system import build_system
+    from models.installed import line_geometry, rigid_support_length
+
+    path = Path(__file__).resolve().parents[2] / "examples" / f"{name}.toml"
+    scenario = load_scenario(path)
+    lengths = {ln.name: rigid_support_length(ln, *line_geometry(scenario, ln))
+               for ln in scenario.lines}
+    system = build_system(scenario, lengths)
+    kinds = {a.spec.name: (len(a.guys), getattr(a.brace, "kind", None))
+             for a in system.anchors.values()}
+    if name == "guyed-post":
+        assert kinds == {"pole": (2, None), "catch": (1, None)}
+    else:
+        assert kinds == {"launch": (0, "h-brace"), "landing": (0, "kicker")}
