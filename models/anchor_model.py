@@ -173,7 +173,7 @@ def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_height
             groups["post"] = [f"{spec.name}.post"]
         built = BuiltAnchor(spec, grade_node, top_node, attach, groups, laminated=lam,
                             post_section=info)
-        _add_footing(model, built, spec, ground, rigid)
+        _add_footing(model, built, spec, ground, rigid, pull)
     _add_guys(model, built, spec, rigid)
     if spec.brace is not None:
         from models.braces import add_brace
@@ -198,7 +198,7 @@ def _post_width(spec: AnchorSpec) -> float:
 
 
 def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: GroundSpec,
-                 rigid: frozenset[str]) -> None:
+                 rigid: frozenset[str], pull: np.ndarray) -> None:
     fs = spec.footing
     where = f"anchor '{spec.name}'.footing"
     node = built.grade_node
@@ -224,7 +224,7 @@ def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: Gro
     if fs.kind == "pier":
         footing = Footing(depth=fs.depth, width=fs.pier_diameter,
                           section=concrete_pier_section(fs.pier_diameter), kind="pier",
-                          post_width=post_width, where=where)
+                          post_width=post_width, orientation=tuple(_across(pull)), where=where)
     else:
         info = built.post_section or {}
         E = info.get("E", 10e9)
@@ -234,7 +234,8 @@ def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: Gro
         else:
             section = BeamSection.rectangle(E, E / E_OVER_G, across, along)
         footing = Footing(depth=fs.depth, width=min(along, across) if spec.post.kind != "round"
-                          else spec.post.base_diameter, section=section, kind="direct", where=where)
+                          else spec.post.base_diameter, section=section, kind="direct",
+                          orientation=tuple(_across(pull)), where=where)
     placed = add_footing(model, node, footing, profile, name=f"{spec.name}.footing")
     built.footing = placed
     built.groups["soil"] = list(placed.spring_groups) + list(placed.extra_groups)

@@ -165,6 +165,6 @@ def _checks(result: RunResult) -> list:
         structural_checks = None
     design = result.passes["design"]
     if structural_checks is not None and design.states:
-        checks += structural_checks(result.system, design)
+        checks += structural_checks(result.system, design, installed=result.installed)
     checks += ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
     return checks
