@@ -55,8 +55,11 @@ def has_display() -> bool:
 def _import_pyvista():
     """pyvista, set up for off-screen use without an X server when there is none."""
     if not has_display():
-        # VTK tries X first and warns; with no display go straight to EGL.
-        os.environ.setdefault("VTK_DEFAULT_OPENGL_WINDOW", "vtkEGLRenderWindow")
+        # VTK tries X first and warns before falling back; with no display and an EGL
+        # library present go straight to EGL (otherwise VTK picks what it has, e.g. OSMesa).
+        import ctypes.util
+        if ctypes.util.find_library("EGL"):
+            os.environ.setdefault("VTK_DEFAULT_OPENGL_WINDOW", "vtkEGLRenderWindow")
     import pyvista as pv
     return pv
 
