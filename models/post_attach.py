@@ -40,12 +40,45 @@ def _axis_candidates(model: Model, built) -> np.ndarray:
     return ids_arr[np.linalg.norm(xy, axis=1) < 1e-9]
 
 
+#: a laminated post gets its own axis node tied to the plies when no axis node is this close
+LAMINATED_TIE_GAP = 0.05
+
+
 def axis_node(model: Model, built, height: float) -> tuple[int, float]:
-    """The post-axis node nearest ``height`` above grade, and ``height`` minus its height."""
+    """The post-axis node nearest ``height`` above grade, and ``height`` minus its height.
+
+    A laminated post has axis nodes only at its attachment heights; where none
+    is within LAMINATED_TIE_GAP, a new axis node is tied to the plies at the
+    nearest ply level (as the post's own attachment nodes are).
+    """
     ids = _axis_candidates(model, built)
     z = model.coords[ids, 2] - model.coords[built.grade_node, 2]
     k = int(np.argmin(np.abs(z - height)))
+    if built.laminated is not None and abs(z[k] - height) > LAMINATED_TIE_GAP:
+        return _tie_to_plies(model, built, height)
     return int(ids[k]), float(height - z[k])
+
+
+def _tie_to_plies(model: Model, built, height: float) -> tuple[int, float]:
+    """A new axis node at the ply level nearest ``height``, tied to every ply like the
+    laminated post's attachment nodes (stiff across, the fastener slip along the post)."""
+    lam = built.laminated
+    mesh, design = lam.mesh, lam.design
+    j = int(np.argmin(np.abs(mesh.levels - height)))
+    level = float(mesh.levels[j])
+    node = model.add_node(model.coords[built.grade_node] + level * mesh.axis)
+    n = design.n
+    k_v = design.slip_modulus(mesh.slip)
+    kr_soft = 1e-3 * min(p.E * p.size.I_weak for p in design.plies) / design.spacing
+    kc = mesh.k_contact
+    axes = np.stack([mesh.stack, mesh.across, mesh.axis])
+    offsets = np.outer(design.offsets, mesh.stack)
+    name = f"{lam.name}.tie{len([g for g in model.groups if g.name.startswith(lam.name + '.tie')])}"
+    model.add_links(np.full(n, node), mesh.ply_nodes[:, j], (kc, kc, k_v, kr_soft, kr_soft, kr_soft),
+                    offsets, 0.0, axes, name=name)
+    built.attach[round(level, 9)] = node
+    built.groups.setdefault("fasteners", []).append(name)
+    return node, float(height - level)
 
 
 def face_offset(model: Model, built, height: float, direction) -> np.ndarray:

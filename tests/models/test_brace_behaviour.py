@@ -74,3 +74,38 @@ def test_parts_are_recorded_for_the_slack_budget_and_rigid_brace_stiffens():
         assert member_axial_force(st, built.brace.strut).max() < 0  # compression
         tops.append(st.translation[built.top_node, 0])
     assert 0 < tops[1] < 0.8 * tops[0]
+
+
+def test_kicker_on_a_laminated_post_is_tied_to_the_plies_and_follows_statics():
+    # A nailed 3-ply post has axis nodes only at its attachments: the kicker gets its own
+    # axis node tied to the plies. On a (nearly) pinned base the strut force follows the
+    # same moment equilibrium as for a solid post (statics, see test_brace_statics).
+    import tomllib
+    from importlib import resources
+
+    from models.scenario import read_scenario
+    from models.system import attach_heights
+    from tests.reference.test_brace_statics import moment_y
+
+    data = tomllib.loads(resources.files("models").joinpath("layouts/two-posts.toml")
+                         .read_text("utf-8"))
+    launch = data["anchor"][0]
+    launch["footing"] = {"kind": "fixed", "base_spring": "1000 N*m/rad"}
+    launch["brace"] = {"kind": "kicker", "attach_height": "7.3 ft", "foot_distance": "5 ft",
+                       "member": "4x4"}
+    scenario = read_scenario(data)
+    spec = scenario.anchor("launch")
+    H = scenario.lines[0].start_height
+    m = Model()
+    built = add_anchor(m, spec, scenario.ground, attach_heights(scenario)["launch"], PULL)
+    assert any(g.endswith(".tie0") for g in built.groups["fasteners"])
+    P = 2000.0
+    m.add_load(built.node_at(H), [P, 0, 0])
+    st = solve(m, steps=2)
+    strut = built.brace.strut
+    assert strut.end1_point[2] == pytest.approx(7.3 * 0.3048, abs=1e-9)
+    p_top, foot = strut.end1_point, strut.end2_point
+    u = (p_top - foot) / np.linalg.norm(p_top - foot)
+    C = -moment_y([0, 0, H], [P, 0, 0]) / moment_y(p_top, u)
+    # the plies' own weight acts on the axis: it adds no moment about the base pin
+    np.testing.assert_allclose(-member_axial_force(st, strut), C, rtol=1e-2)
