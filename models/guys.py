@@ -19,7 +19,7 @@ Slack guys and ground anchors pulled past their capacity are findings of
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -61,12 +61,12 @@ class BuiltGuy:
     chord: float
     EA: float
     groups: list[str]
+    cable_group: object = field(default=None, repr=False)  # the fem CableGroup
 
     @property
     def L0(self) -> float:
-        return float(self._group.L0[0])
-
-    _group: object = None
+        """Unstressed length now in the model, m."""
+        return float(self.cable_group.L0[0])
 
 
 @dataclass(frozen=True)
@@ -139,9 +139,7 @@ def add_guy(model: Model, post_node: int, guy: GuySpec, *, offset=(0.0, 0.0, 0.0
     l0 = (chord - t0 * flexible) / (1.0 + t0 / ea)
     group = model.add_cables([ground], [eye], ea, l0, weight=0.0, name=name)
     groups.insert(0, name)
-    built = BuiltGuy(guy, where, name, post_node, eye, ground, support, e, chord, ea, groups)
-    built._group = group
-    return built
+    return BuiltGuy(guy, where, name, post_node, eye, ground, support, e, chord, ea, groups, group)
 
 
 def add_guys(model: Model, built, spec: AnchorSpec, rigid: frozenset[str]) -> list:
@@ -159,12 +157,12 @@ def add_guys(model: Model, built, spec: AnchorSpec, rigid: frozenset[str]) -> li
         where = f"anchor '{spec.name}'.guy[{i + 1}]"
         plan = np.asarray(guy.ground_point[:2], float) - np.array([spec.x, spec.y])
         direction = np.array([plan[0], plan[1], 0.0])
-        face = 0.0
-        if np.linalg.norm(direction) > 1e-9 and spec.post is not None:
-            face = float(np.linalg.norm(face_offset(model, built, guy.attach_height, direction)))
-        _check(spec, guy, where, face)
+        face = np.zeros(3)
+        if np.linalg.norm(direction) > 1e-9:
+            face = face_offset(model, built, guy.attach_height, direction)
+        _check(spec, guy, where, float(np.linalg.norm(face)))
         node, dz = axis_node(model, built, guy.attach_height)
-        arm = face_offset(model, built, guy.attach_height, direction) + np.array([0.0, 0.0, dz])
+        arm = face + np.array([0.0, 0.0, dz])
         g = add_guy(model, node, guy, offset=arm, name=f"{spec.name}.guy{i + 1}", where=where,
                     rigid="guy" in rigid)
         out.append(g)
