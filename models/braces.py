@@ -26,14 +26,11 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from fem import BeamSection, LinearLaw, Model
+from models.anchor_model import E_OVER_G, RIGID
 from models.errors import InputError
 from models.post_attach import axis_node, face_offset, perpendicular_axes, plan_unit, unit_from_degrees
 from models.spec import AnchorSpec, GroundSpec, SectionSpec
 
-#: stiffness multiplier that stands for "rigid" in the slack budget (as anchor_model.RIGID)
-RIGID = 1.0e4
-#: softwood E/G (Swedish Wood, Design of Timber Structures, Vol. 1; references.md)
-E_OVER_G = 16.0
 #: a pinned joint is taken as rigid except in its hinge rotation: its link is this many
 #: times stiffer than the member (axially, and in bending for the restrained rotations)
 PIN_STIFFNESS_RATIO = 1.0e3
@@ -41,8 +38,8 @@ PIN_STIFFNESS_RATIO = 1.0e3
 MEMBER_ELEMENTS = 4
 #: Vertical modulus of subgrade reaction under a kicker's foot block, N/m^3: 20 MN/m^3,
 #: within Bowles' ranges (Foundation Analysis and Design, Table 9-1, from memory) for
-#: medium-dense sand (10-80) and stiff clay (25-50). A judgement; results are not very
-#: sensitive to it because the strut is much softer only when the block is small.
+#: medium-dense sand (10-80) and stiff clay (25-50). A judgement, not a site value: set
+#: blocks on firm, undisturbed ground.
 BLOCK_SUBGRADE_MODULUS = 20.0e6
 
 

@@ -24,12 +24,11 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from fem import Model, State, solve
+from models.anchor_model import RIGID
 from models.errors import InputError
 from models.post_attach import axis_node, face_offset, perpendicular_axes
 from models.spec import AnchorSpec, GuySpec
 
-#: stiffness multiplier that stands for "rigid" in the slack budget (as anchor_model.RIGID)
-RIGID = 1.0e4
 #: the eye hardware is taken as rigid: its link is this many times stiffer than the guy
 EYE_STIFFNESS_RATIO = 1.0e3
 
