@@ -179,3 +179,42 @@ def test_tuned_guy_lengths_give_the_stated_pretension_on_a_flexible_post():
     assert guy_state(m, st, g).tension < 0.9 * T0  # the post gave way
     st = tune_pretension(m, [(g.cable, T0)], st)
     assert guy_state(m, st, g).tension == pytest.approx(T0, rel=1e-3)
+
+
+def test_guyed_anchor_shares_an_angled_pull_between_guys_and_footing():
+    # A 6x6 post fixed at grade with two guys on its faces and a line pulling at 30 deg in
+    # plan: every reaction balances the pull in force and moment (statics), and the
+    # guys' share plus the footing's share is the whole pull.
+    from dataclasses import replace
+
+    from models.anchor_checks import reaction_shares
+    from models.anchor_model import add_anchor
+    from models.spec import FootingSpec
+    from tests.reference.test_brace_statics import GROUND, anchor
+
+    fixed = FootingSpec(kind="fixed", depth=0.0, pier_diameter=None, backfill=None,
+                        base_spring=None, soil=None, slab_at_grade=False,
+                        double_lateral_bearing=False)
+    H = 3.2
+    guys = tuple(guy_spec((3.0 * np.cos(np.radians(a)), 3.0 * np.sin(np.radians(a)), 0.0), 3.0,
+                          pretension=400.0, stiffness=2e6) for a in (160.0, 220.0))
+    spec = replace(anchor(H, None), footing=fixed, guys=guys)
+    m = Model()
+    pull = np.array([np.cos(np.radians(30.0)), np.sin(np.radians(30.0)), 0.0])
+    built = add_anchor(m, spec, GROUND, [H], pull)
+    P = 2000.0 * pull + np.array([0.0, 0.0, -300.0])
+    top = built.node_at(H)
+    m.add_load(top, P)
+    st = solve(m, steps=2)
+    x = m.coords + st.translation
+    r = st.reactions
+    np.testing.assert_allclose(r[:, :3].sum(axis=0), -P, atol=1e-6 * 2000.0)
+    moment = np.cross(x, r[:, :3]).sum(axis=0) + r[:, 3:].sum(axis=0) + np.cross(x[top], P)
+    np.testing.assert_allclose(moment, 0.0, atol=1e-6 * 2000.0 * H)
+    shares = reaction_shares(m, built, st)
+    np.testing.assert_allclose(shares["guys"] + shares["footing"], -P, atol=1e-6 * 2000.0)
+    assert np.all(shares["brace"] == 0.0)
+    # each guy's ground reaction lies along its chord and equals its tension
+    for g in built.guys:
+        rg = r[g.ground_node, :3] + (r[g.support_node, :3] if g.support_node is not None else 0)
+        assert np.linalg.norm(rg) == pytest.approx(guy_state(m, st, g).tension, rel=1e-3)
