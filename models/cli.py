@@ -92,6 +92,10 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
     except (InputError, FemError, OSError) as exc:
         _fail(exc)
         return
+    except Exception as exc:  # noqa: BLE001 - a user never sees a traceback
+        click.echo(f"spanstay: internal error ({type(exc).__name__}: {exc}); nothing was written. "
+                   "Please report it with the scenario file.", err=True)
+        sys.exit(1)
     click.echo("\n".join(summary_lines(result, written, units)))
 
 

@@ -63,6 +63,31 @@ def _target(line: LineSpec):
     return None, None
 
 
+def hang_between_ends(system: System, state: State, line: BuiltLine) -> State:
+    """A warm start with the cable re-hung, as a segmented elastic chain, between
+    where its ends are now (its unstressed length may have changed: nodes left
+    where they were would leave a lightly tensioned cable slack)."""
+    from models.catenary import chain_points
+
+    model = system.model
+    nodes = line.nodes
+    ends = model.coords[nodes[[0, -1]]] + state.translation[nodes[[0, -1]]]
+    plan = (ends[1] - ends[0])[:2]
+    span = float(np.linalg.norm(plan))
+    rope = line.spec.rope
+    ea = float(model.group(line.group).EA[0])
+    group = model.group(line.group)
+    length = float(group.free_length().sum())  # at the cable's temperature
+    pts = chain_points(span, float(ends[0, 2] - ends[1, 2]), length, rope.weight_per_length, ea,
+                       nodes.size - 1)
+    plan = plan / span
+    xyz = np.column_stack([ends[0, 0] + plan[0] * pts[:, 0], ends[0, 1] + plan[1] * pts[:, 0],
+                           ends[0, 2] + pts[:, 1]])
+    warm = state.copy()
+    warm.translation[nodes[1:-1]] = xyz[1:-1] - model.coords[nodes[1:-1]]
+    return warm
+
+
 def solve_installed(system: System, state: State | None = None) -> State:
     """Equilibrium of the structure under self-weight and pretensions."""
     try:
@@ -104,7 +129,7 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
         for _ in range(12):
             group.L0[:] = L_b / group.L0.size
             bl.L0 = L_b
-            state = solve_installed(system, state)
+            state = solve_installed(system, hang_between_ends(system, state, bl))
             v_b = measure(system, state, bl)
             if abs(v_b - target) <= MATCH_TOL * abs(target):
                 break

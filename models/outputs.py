@@ -113,8 +113,9 @@ def _beam_shape(anchor, name: str, group) -> dict:
         return {**out, "kind": "tree", "shape": "round",
                 "diameter": 0.5 * (t.diameter_at_grade + t.diameter_at_attachment)}
     if post.kind == "laminated" and ".ply" in name:
-        return {**out, "kind": "ply", "shape": "rectangle", "width": post.ply.width,
-                "depth": post.ply.depth}
+        # a ply's local y is the stacking direction: its thickness lies along it
+        return {**out, "kind": "ply", "shape": "rectangle", "width": post.ply.depth,
+                "depth": post.ply.width}
     if post.kind == "round":
         return {**out, "shape": "round", "diameter": 0.5 * (post.base_diameter + post.top_diameter)}
     if post.section is not None:
@@ -122,7 +123,7 @@ def _beam_shape(anchor, name: str, group) -> dict:
     return out
 
 
-def build_summary(result, scenario_file: str, units: str, vtk_files: list[str],
+def build_summary(result, scenario_file: str, units: str, vtk: dict,
                   plots: dict[str, str]) -> dict:
     """The summary.json content (see the results-folder contract in DEVELOPERS.md)."""
     from importlib.metadata import PackageNotFoundError, version
@@ -141,7 +142,6 @@ def build_summary(result, scenario_file: str, units: str, vtk_files: list[str],
                            "sag": measured_sag(system, result.installed, line),
                            "tension_start": t0, "tension_end": t1}
     rider_line = system.lines[sc.rider.line]
-    heavy = result.passes["ride_heavy"]
     summary = {
         "spanstay": {"version": ver},
         "cautions": list(CAUTIONS),
@@ -165,8 +165,8 @@ def build_summary(result, scenario_file: str, units: str, vtk_files: list[str],
             "ground_profile": [list(p) for p in sc.ground.profile],
             "line_start_xyz": rider_line.start_xyz, "line_end_xyz": rider_line.end_xyz,
         },
-        "vtk": {"ride_heavy": {"pvd": "vtk/ride_heavy.pvd", "files": vtk_files,
-                               "along": [st.along for st in heavy.stations]}},
+        "vtk": vtk,
+        "soil_profiles": soil_profiles(result),
         "plots": plots,
     }
     if result.clearance is not None:
@@ -195,19 +195,54 @@ def _write_csv(path: Path, result) -> None:
                 w.writerow([f"{v:.6g}" if isinstance(v, (float, np.floating)) else v for v in row])
 
 
-def _write_vtk(folder: Path, result) -> list[str]:
+def _write_series(folder: Path, model, label: str, p) -> list[str]:
     from fem import write_pvd, write_vtu
 
-    folder.mkdir()
-    heavy = result.passes["ride_heavy"]
     files = []
-    model = result.system.model
-    for i, state in enumerate(heavy.states):
-        name = f"ride_heavy_{i:03d}.vtu"
+    for i, state in enumerate(p.states):
+        name = f"{label}_{i:03d}.vtu"
         write_vtu(folder / name, model, state)
         files.append(f"vtk/{name}")
-    write_pvd(folder / "ride_heavy.pvd", [(st.along, Path(f).name) for st, f in zip(heavy.stations, files)])
+    write_pvd(folder / f"{label}.pvd", [(st.along, Path(f).name) for st, f in zip(p.stations, files)])
     return files
+
+
+def _write_vtk(folder: Path, result) -> dict:
+    """The installed state and the series of every pass whose states were kept."""
+    from fem import write_vtu
+
+    folder.mkdir()
+    model = result.system.model
+    write_vtu(folder / "installed.vtu", model, result.installed)
+    out = {"installed": {"file": "vtk/installed.vtu"}}
+    for label, p in result.passes.items():
+        if p.states:
+            out[label] = {"pvd": f"vtk/{label}.pvd", "files": _write_series(folder, model, label, p),
+                          "along": [st.along for st in p.stations]}
+    return out
+
+
+def soil_profiles(result) -> dict:
+    """Soil reaction along each footing at the design pass's station that loads it most."""
+    from models.footing import footing_response
+
+    design = result.passes["design"]
+    out = {}
+    for name, anchor in result.system.anchors.items():
+        if anchor.footing is None or not design.states:
+            continue
+        ratios = [st.soil_ratio.get(name, 0.0) for st in design.stations]
+        k = int(np.argmax(ratios))
+        line = result.system.lines[result.scenario.rider.line]
+        pull = (line.end_xyz - line.start_xyz)[:2]
+        direction = pull if name == line.spec.end else -pull
+        r = footing_response(anchor.footing, result.system.model, design.states[k], direction)
+        out[anchor.footing.member_group] = {
+            "anchor": name, "station": k, "along": design.stations[k].along,
+            "depth": r.depth, "p": r.p, "p_ultimate": r.p_ultimate, "ratio": r.ratio,
+            "displacement": r.displacement, "moment": r.moment, "shear": r.shear,
+            "ground_rotation": r.ground_rotation, "rotation_point_depth": r.rotation_point_depth}
+    return out
 
 
 def _write_plots(folder: Path, result, units: str) -> dict[str, str]:
@@ -248,17 +283,14 @@ def write_results(result, out_dir: Path, scenario_file: str, units: str) -> Path
     out_dir.parent.mkdir(parents=True, exist_ok=True)
     tmp = Path(tempfile.mkdtemp(prefix=f".{out_dir.name}.", dir=out_dir.parent))
     try:
-        vtk_files = _write_vtk(tmp / "vtk", result)
+        vtk = _write_vtk(tmp / "vtk", result)
         plots = _write_plots(tmp / "plots", result, units)
-        summary = build_summary(result, scenario_file, units, vtk_files, plots)
-        (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
+        summary = build_summary(result, scenario_file, units, vtk, plots)
         _write_csv(tmp / "stations.csv", result)
-        try:
-            from models.report import write_report
-        except ImportError:  # pragma: no cover - lands with the report module
-            write_report = None
-        if write_report is not None:
-            write_report(tmp, summary)
+        from models.report import write_report
+
+        write_report(tmp, summary)  # adds its own figures to summary["plots"]
+        (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
         if out_dir.exists():
             shutil.rmtree(out_dir)
         tmp.rename(out_dir)

@@ -63,26 +63,25 @@ def station_coordinates(system: System, state: State, line_name: str, start_offs
 def _at_temperature(system: System, installed: State, d_t: float) -> State:
     """The installed state with every line's cable at a temperature change ``d_t``.
 
-    The change is applied in steps of at most 5 K, each solve warm-started
-    from the last (a cable that suddenly grows by its whole thermal strain
-    can leave Newton too far from the new sag).
+    Each cable is re-hung as a segmented elastic chain of its new free length
+    between where its ends are, then the whole structure is solved (a lightly
+    tensioned cable that grows by its thermal strain would otherwise start
+    slack).
     """
-    groups = [system.model.group(line.group) for line in system.lines.values()]
+    from models.installed import hang_between_ends
+
+    for line in system.lines.values():
+        system.model.group(line.group).dT[:] = d_t
     if d_t == 0.0:
-        for g in groups:
-            g.dT[:] = 0.0
         return installed
     state = installed
-    count = max(1, int(np.ceil(abs(d_t) / 5.0)))
+    for line in system.lines.values():
+        state = hang_between_ends(system, state, line)
     try:
-        for k in range(1, count + 1):
-            for g in groups:
-                g.dT[:] = d_t * k / count
-            state = solve(system.model, state=state, steps=1)
+        return solve(system.model, state=state, steps=1)
     except FemError as exc:
         raise InputError(f"no installed equilibrium at a temperature change of {d_t:+.1f} K: {exc}",
                          "settings.use_temperatures") from None
-    return state
 
 
 def analyse(scenario: Scenario, stations: int | None = None,

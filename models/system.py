@@ -7,7 +7,7 @@ import numpy as np
 
 from fem import Model
 from models.anchor_model import RIGID, BuiltAnchor, add_anchor
-from models.catenary import solve_catenary
+from models.catenary import chain_points
 from models.spec import LineSpec, Scenario
 
 
@@ -98,8 +98,8 @@ def build_system(scenario: Scenario, lengths: dict[str, float], rigid: frozenset
                  temperature: float | None = None) -> System:
     """Build the model with each line's unstressed length from ``lengths``.
 
-    Cable nodes start on the elastic catenary between the undeformed
-    attachment points. ``rigid`` may hold "cable", "post", "fasteners",
+    Cable nodes start on the equilibrium of the segmented elastic cable
+    (from the elastic catenary) between the undeformed attachment points. ``rigid`` may hold "cable", "post", "fasteners",
     "soil", "guy". ``temperature`` (K) sets the cables' thermal strain against
     the installation temperature.
     """
@@ -126,11 +126,9 @@ def _add_line(model: Model, line: LineSpec, n1: int, n2: int, p1: np.ndarray, p2
     span = float(np.linalg.norm((p2 - p1)[:2]))
     drop = float(p1[2] - p2[2])
     ea = rope.EA * (RIGID if "cable" in rigid else 1.0)
-    cat = solve_catenary(span, drop, L0, rope.weight_per_length, ea)
-    s = np.linspace(0.0, L0, n + 1)[1:-1]
+    pts = chain_points(span, drop, L0, rope.weight_per_length, ea, n)[1:-1]
     plan = (p2 - p1)[:2] / span
-    xs, zs = cat.x(s), cat.z_down(s)
-    inner = np.column_stack([p1[0] + plan[0] * xs, p1[1] + plan[1] * xs, p1[2] - zs])
+    inner = np.column_stack([p1[0] + plan[0] * pts[:, 0], p1[1] + plan[1] * pts[:, 0], p1[2] + pts[:, 1]])
     ids = model.add_nodes(inner)
     nodes = np.concatenate([[n1], ids, [n2]])
     name = f"line.{line.name}"

@@ -24,6 +24,18 @@ def _value(value, kind: str, units: str) -> str:
     return f"{value:.3g}"
 
 
+def _governing(gov: dict, units: str) -> str:
+    """Which pass, rider and station governs a check, as a short bracket."""
+    parts = []
+    if gov.get("pass"):
+        parts.append(str(gov["pass"]))
+    if gov.get("rider_weight"):
+        parts.append(f"rider {show(gov['rider_weight'], 'force', units)}")
+    if gov.get("along") is not None:
+        parts.append(f"at {show(gov['along'], 'length', units)}")
+    return f"  [{', '.join(parts)}]" if parts else ""
+
+
 def summary_lines(result, out_dir, units: str) -> list[str]:
     """Lines of text summing up a run."""
     from models.installed import end_tensions, measured_sag
@@ -66,7 +78,7 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         util = d["utilization"]
         util_s = f"{util:5.2f}" if util is not None else "  -  "
         lines.append(f"    {mark} {util_s}  {d['where']}: {d['description']}: {_value(d['demand'], d['kind'], units)} "
-                     f"vs {_value(d['capacity'], d['kind'], units)}")
+                     f"vs {_value(d['capacity'], d['kind'], units)}{_governing(d.get('governing') or {}, units)}")
     lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
     lines.append(f"  results: {out_dir}")
     lines.append("")

@@ -68,9 +68,11 @@ def test_files_in_the_results_folder(run_folder):
     summary = json.loads((out / "summary.json").read_text())
     rows = list(csv.DictReader((out / "stations.csv").open()))
     assert len(rows) == sum(p["stations"] for p in summary["passes"].values())
-    vtus = sorted((out / "vtk").glob("*.vtu"))
-    assert len(vtus) == summary["passes"]["ride_heavy"]["stations"]
-    assert (out / "vtk" / "ride_heavy.pvd").read_text().count("<DataSet") == len(vtus)
+    heavy = sorted((out / "vtk").glob("ride_heavy_*.vtu"))
+    assert len(heavy) == summary["passes"]["ride_heavy"]["stations"]
+    assert (out / "vtk" / "ride_heavy.pvd").read_text().count("<DataSet") == len(heavy)
+    assert (out / "vtk" / "installed.vtu").exists()
+    assert summary["soil_profiles"]
     for name in ("ride_profile", "speed", "tension"):
         assert (out / summary["plots"][name]).stat().st_size > 1000
     assert not any(p.name.startswith(".results.") for p in out.parent.iterdir())
