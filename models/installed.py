@@ -101,9 +101,10 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
             temperature: float | None = None) -> tuple[System, State, dict[str, float]]:
     """Build and solve the installed state.
 
-    Returns the system, its state and each line's unstressed length. When
-    ``lengths`` is given (re-solves of the slack budget, other temperatures)
-    they are used as they are: the cable was cut to length once.
+    Returns the system, its state and the unstressed lengths: each line's
+    (key: line name) and each pretensioned guy's or brace wire's (key:
+    "wire:<group>"). When ``lengths`` is given (re-solves of the slack
+    budget) they are used as they are: the cables were cut to length once.
     """
     fixed_lengths = lengths is not None
     if lengths is None:
@@ -115,9 +116,44 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
             except ValueError as exc:
                 raise InputError(f"cannot hang the line as given: {exc}", f"line '{line.name}'") from None
     system = build_system(scenario, lengths, rigid, temperature)
-    state = solve_installed(system)
+    wires = _wire_targets(system)
     if fixed_lengths:
-        return system, state, dict(lengths)
+        for name, _ in wires:
+            if f"wire:{name}" in lengths:
+                system.model.group(name).L0[:] = lengths[f"wire:{name}"]
+        return system, solve_installed(system), dict(lengths)
+    state = solve_installed(system)
+    # the line's sag or tension and the guys' pretensions are all stated on the
+    # finished structure: match them in turn until both hold
+    for _ in range(3 if wires else 1):
+        if wires:
+            state = _tune_wires(system, wires, state)
+        state = _match_lines(scenario, system, state)
+    for line in scenario.lines:
+        lengths[line.name] = system.lines[line.name].L0
+    for name, _ in wires:
+        lengths[f"wire:{name}"] = float(system.model.group(name).L0[0])
+    return system, state, lengths
+
+
+def _wire_targets(system: System) -> list[tuple[str, float]]:
+    """(cable group, pretension) of every pretensioned guy and brace wire."""
+    from models.guys import pretension_targets
+
+    return [t for anchor in system.anchors.values() for t in pretension_targets(anchor)]
+
+
+def _tune_wires(system: System, wires, state: State) -> State:
+    from models.guys import tune_pretension
+
+    try:
+        return tune_pretension(system.model, wires, state)
+    except FemError as exc:
+        raise InputError(f"the guys cannot be brought to their pretension: {exc}", "anchor") from None
+
+
+def _match_lines(scenario: Scenario, system: System, state: State) -> State:
+    """Secant steps on each line's unstressed length to meet its stated sag or tension."""
     for line in scenario.lines:
         target, measure = _target(line)
         if target is None:
@@ -125,6 +161,8 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
         bl = system.lines[line.name]
         group = system.model.group(bl.group)
         L_a, v_a = bl.L0, measure(system, state, bl)
+        if abs(v_a - target) <= MATCH_TOL * abs(target):
+            continue
         L_b = L_a * (1.0 + (1e-4 if line.sag is not None else -1e-5) * np.sign(target - v_a))
         for _ in range(12):
             group.L0[:] = L_b / group.L0.size
@@ -136,5 +174,4 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
             if v_b == v_a:
                 break
             L_a, v_a, L_b = L_b, v_b, L_b + (target - v_b) * (L_b - L_a) / (v_b - v_a)
-        lengths[line.name] = bl.L0
-    return system, state, lengths
+    return state
