@@ -139,7 +139,7 @@ def chain_points(span: float, drop: float, L0: float, w: float, EA: float, n: in
         return [(end[0] - span) / span, (end[1] + drop) / span]
 
     v0 = -(c.V - 0.5 * p)
-    sol = fsolve(eqs, [np.log(c.H), v0], xtol=1e-14)
+    sol = fsolve(eqs, [np.log(c.H), v0], xtol=1e-14, full_output=True)[0]  # judged on the residual
     if np.max(np.abs(eqs(sol))) > 1e-10:
         raise ValueError("the segmented cable did not solve")
     return points(sol)
