@@ -39,19 +39,38 @@ def init(file: str, layout: str, force: bool) -> None:
     click.echo(f"wrote {path} (layout {layout}); edit it, then run: spanstay validate {path}")
 
 
+def _nominal_length(scenario, line) -> float:
+    """An unstressed length good enough to build the model for a check: the
+    chord plus a little slack (the real one is found when solving)."""
+    from models.installed import line_geometry
+
+    if line.unstressed_length is not None:
+        return line.unstressed_length
+    span, drop = line_geometry(scenario, line)
+    return float((span**2 + drop**2) ** 0.5 * 1.001)
+
+
 @main.command("validate")
 @click.argument("file", type=click.Path(dir_okay=False))
 @click.option("--units", type=click.Choice(["us", "si"]), default=None,
               help="Units for the summary (default: the scenario's settings.units).")
 def validate(file: str, units: str | None) -> None:
-    """Read and check scenario FILE without solving; print what was read."""
+    """Read and check scenario FILE without solving; print what was read.
+
+    The structure is also built (not solved), so geometry that only shows when
+    the parts are put together (a brace foot inside its post, a guy above the
+    top) is reported here too.
+    """
+    from fem.errors import FemError
     from models.errors import InputError
     from models.scenario import load_scenario
     from models.scenario_summary import summary_text
+    from models.system import build_system
 
     try:
         scenario = load_scenario(file)
-    except InputError as exc:
+        build_system(scenario, {line.name: _nominal_length(scenario, line) for line in scenario.lines})
+    except (InputError, FemError) as exc:
         _fail(exc)
     click.echo(summary_text(scenario, units or scenario.settings.units))
     click.echo("valid")
