@@ -91,7 +91,7 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
     from fem.errors import FemError
     from models.errors import InputError
     from models.outputs import write_results
-    from models.run import analyse
+    from models.run import analyse, pass_count
     from models.scenario import load_scenario
     from models.terminal import summary_lines
 
@@ -102,9 +102,8 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
         if scenario.rider is None:
             raise InputError("a [rider] table is needed to run the line", "rider")
         count = stations or scenario.rider.stations
-        passes = 4 if max(scenario.settings.use_temperatures + (scenario.settings.install_temperature,)) \
-            > scenario.settings.install_temperature + 0.05 else 3
-        with click.progressbar(length=passes * count, label="rider stations", file=sys.stderr) as bar:
+        with click.progressbar(length=pass_count(scenario) * count, label="rider stations",
+                               file=sys.stderr) as bar:
             result = analyse(scenario, stations=count, progress=lambda label, n: bar.update(n))
         target = Path(out_dir) if out_dir else path.with_name(f"{path.stem}_results")
         written = write_results(result, target, str(path), units)

@@ -199,11 +199,12 @@ def _write_series(folder: Path, model, label: str, p) -> list[str]:
     from fem import write_pvd, write_vtu
 
     files = []
+    stem = "".join(ch if ch.isalnum() or ch in "-_" else "_" for ch in label)
     for i, state in enumerate(p.states):
-        name = f"{label}_{i:03d}.vtu"
+        name = f"{stem}_{i:03d}.vtu"
         write_vtu(folder / name, model, state)
         files.append(f"vtk/{name}")
-    write_pvd(folder / f"{label}.pvd", [(st.along, Path(f).name) for st, f in zip(p.stations, files)])
+    write_pvd(folder / f"{stem}.pvd", [(st.along, Path(f).name) for st, f in zip(p.stations, files)])
     return files
 
 
@@ -217,7 +218,8 @@ def _write_vtk(folder: Path, result) -> dict:
     out = {"installed": {"file": "vtk/installed.vtu"}}
     for label, p in result.passes.items():
         if p.states:
-            out[label] = {"pvd": f"vtk/{label}.pvd", "files": _write_series(folder, model, label, p),
+            files = _write_series(folder, model, label, p)
+            out[label] = {"pvd": files[0].rsplit("_", 1)[0] + ".pvd" if files else None, "files": files,
                           "along": [st.along for st in p.stations]}
     return out
 

@@ -112,6 +112,17 @@ def analyse(scenario: Scenario, stations: int | None = None,
         tick = (lambda lab=label: progress(lab, 1)) if progress else None
         passes[label] = run_pass(system, start, line, s, weight, label, temp, keep_states=keep,
                                  progress=tick)
+    # every other line of the scenario carries the same heaviest rider in turn, so the
+    # anchors it shares are checked under its pull too
+    for name in other_lines(scenario):
+        label = f"design-{name}"
+        s_other = station_coordinates(system, installed, name, rider.start_offset,
+                                      rider.stop_offset, count)
+        start = _at_temperature(system, installed, t_cold - t_inst)
+        tick = (lambda lab=label: progress(lab, 1)) if progress else None
+        passes[label] = run_pass(system, start, system.lines[name], s_other,
+                                 rider.heaviest * rider.dynamic_factor, label, t_cold,
+                                 keep_states=True, progress=tick)
     _at_temperature(system, installed, 0.0)
     result = RunResult(scenario, system, installed, lengths, s, passes)
     _ride(result)
@@ -120,6 +131,18 @@ def analyse(scenario: Scenario, stations: int | None = None,
         result.slack = budget(result)
     result.checks = _checks(result)
     return result
+
+
+def other_lines(scenario: Scenario) -> list[str]:
+    """Names of the lines other than the one the rider's table names."""
+    return [line.name for line in scenario.lines if line.name != scenario.rider.line]
+
+
+def pass_count(scenario: Scenario) -> int:
+    """How many rider passes a run makes (for a progress bar)."""
+    settings = scenario.settings
+    hot = max(settings.use_temperatures + (settings.install_temperature,)) > settings.install_temperature + 0.05
+    return 3 + int(hot) + len(other_lines(scenario))
 
 
 def _profile(p: Pass) -> tuple[np.ndarray, np.ndarray]:
@@ -154,6 +177,11 @@ def _ride(result: RunResult) -> None:
     result.clearance = worst
 
 
+def _util(check) -> float:
+    u = check.utilization
+    return -1.0 if u is None else float(u)
+
+
 def _checks(result: RunResult) -> list:
     from models.run_checks import ride_checks
 
@@ -162,8 +190,14 @@ def _checks(result: RunResult) -> list:
         from models.checks import structural_checks
     except ImportError:  # pragma: no cover - lands with the checks module
         structural_checks = None
-    design = result.passes["design"]
-    if structural_checks is not None and design.states:
-        checks += structural_checks(result.system, design, installed=result.installed)
+    worst: dict[str, object] = {}
+    for label, p in result.passes.items():
+        if not label.startswith("design") or not p.states or structural_checks is None:
+            continue
+        for c in structural_checks(result.system, p, installed=result.installed):
+            old = worst.get(c.id)
+            if old is None or _util(c) > _util(old):
+                worst[c.id] = c
+    checks += list(worst.values())
     checks += ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
     return checks
