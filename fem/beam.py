@@ -15,7 +15,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
-from .rotation import logmap, tangent_inverse
+from .rotation import logmap_moderate, tangent_inverse
 
 
 @dataclass
@@ -175,8 +175,8 @@ class BeamGroup(ElementGroup):
         e2 = np.cross(e3, e1)
         rr = np.stack([e1, e2, e3], axis=2)
         rrt = np.transpose(rr, (0, 2, 1))
-        th1 = logmap(rrt @ t1)
-        th2 = logmap(rrt @ t2)
+        th1 = logmap_moderate(rrt @ t1)
+        th2 = logmap_moderate(rrt @ t2)
         dl = np.zeros((u1.shape[0], 12))
         dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, elong, th2
         reps = u1.shape[0] // k_local.shape[0]  # a batch of stacked copies shares k_local
@@ -193,11 +193,12 @@ class BeamGroup(ElementGroup):
         wr[:, 0, 9:12] += np.cross(q2, e3) / (2.0 * ql2[:, None])
         f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
-        for th, m, cols in ((th1, m1, slice(3, 6)), (th2, m2, slice(9, 12))):
-            v = -wr.copy()
-            v[:, :, cols] += rrt
-            b = tangent_inverse(th) @ v  # (n, 3, 12)
-            f += np.einsum("nij,ni->nj", b, m)
+        # f += B_i^T m_i with B_i = T^-1(th_i) (V_i - W_r): first y_i = T^-T m_i
+        y1 = np.einsum("nji,nj->ni", tangent_inverse(th1), m1)
+        y2 = np.einsum("nji,nj->ni", tangent_inverse(th2), m2)
+        f -= np.einsum("nij,ni->nj", wr, y1 + y2)
+        f[:, 3:6] += np.einsum("nij,nj->ni", rr, y1)
+        f[:, 9:12] += np.einsum("nij,nj->ni", rr, y2)
         return f, fl, dl
 
     def _state(self, disp, rot):

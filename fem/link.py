@@ -12,7 +12,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
-from .rotation import logmap
+from .rotation import logmap_moderate as logmap  # exact; cheaper while angles stay below 3 rad
 
 
 class LinkGroup(ElementGroup):

@@ -84,3 +84,27 @@ def tangent_inverse(theta: np.ndarray) -> np.ndarray:
     s = skew(theta)
     eye = np.broadcast_to(np.eye(3), s.shape)
     return eye - 0.5 * s + eta[..., None, None] * (s @ s)
+
+
+def logmap_moderate(rot: np.ndarray) -> np.ndarray:
+    """Rotation vector of rotation matrices whose angles stay well below pi.
+
+    Cheaper than :func:`logmap` (no branch on the largest quaternion part):
+    theta = atan2(|a|, (tr - 1) / 2) a / |a| with a the axial vector of the
+    skew part. Exact for angles up to about 3 rad; used for the small local
+    rotations of corotational elements, with :func:`logmap` taking over for
+    any larger angle.
+    """
+    r = np.asarray(rot, dtype=float)
+    a = 0.5 * np.stack([r[..., 2, 1] - r[..., 1, 2], r[..., 0, 2] - r[..., 2, 0],
+                        r[..., 1, 0] - r[..., 0, 1]], axis=-1)
+    s = np.sqrt(np.einsum("...i,...i->...", a, a))
+    c = 0.5 * (r[..., 0, 0] + r[..., 1, 1] + r[..., 2, 2] - 1.0)
+    angle = np.arctan2(s, c)
+    small = s < 1e-8
+    scale = np.where(small, 1.0 + angle**2 / 6.0, angle / np.where(small, 1.0, s))
+    out = a * scale[..., None]
+    big = angle > 3.0
+    if np.any(big):
+        out[big] = logmap(r[big])
+    return out
