@@ -15,7 +15,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
-from .rotation import logmap_moderate, tangent_inverse
+from .rotation import cross3, logmap_moderate, tangent_inverse
 
 
 @dataclass
@@ -136,7 +136,7 @@ class BeamGroup(ElementGroup):
             i = int(np.argmax(zero))
             raise ModelError(f"{what} element {i}: orientation vector is zero; give a vector across "
                              f"the beam for local y")
-        e3 = np.cross(e1, ov)
+        e3 = cross3(e1, ov)
         n3 = np.linalg.norm(e3, axis=1)
         bad = n3 <= 1e-6 * np.linalg.norm(ov, axis=1)
         if np.any(bad):
@@ -144,7 +144,7 @@ class BeamGroup(ElementGroup):
             raise ModelError(f"{what} element {i}: orientation vector {ov[i].tolist()} is parallel "
                              f"to the beam axis; give a vector across the beam for local y")
         e3 /= n3[:, None]
-        e2 = np.cross(e3, e1)
+        e2 = cross3(e3, e1)
         self.frame0 = np.stack([e1, e2, e3], axis=2)  # columns are local axes
         self.k_local = local_stiffness(self.L0, **vals)
 
@@ -170,9 +170,9 @@ class BeamGroup(ElementGroup):
         t2 = r2 @ frame0
         q1, q2 = t1[:, :, 1], t2[:, :, 1]
         q = 0.5 * (q1 + q2)
-        e3 = np.cross(e1, q)
+        e3 = cross3(e1, q)
         e3 /= np.linalg.norm(e3, axis=1)[:, None]
-        e2 = np.cross(e3, e1)
+        e2 = cross3(e3, e1)
         rr = np.stack([e1, e2, e3], axis=2)
         rrt = np.transpose(rr, (0, 2, 1))
         th1 = logmap_moderate(rrt @ t1)
@@ -189,8 +189,8 @@ class BeamGroup(ElementGroup):
         wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2 / ln[:, None], e2 / ln[:, None]
         wr[:, 1, 0:3], wr[:, 1, 6:9] = e3 / ln[:, None], -e3 / ln[:, None]
         wr[:, 0, :] = (ql1 / ql2)[:, None] * wr[:, 1, :]
-        wr[:, 0, 3:6] += np.cross(q1, e3) / (2.0 * ql2[:, None])
-        wr[:, 0, 9:12] += np.cross(q2, e3) / (2.0 * ql2[:, None])
+        wr[:, 0, 3:6] += cross3(q1, e3) / (2.0 * ql2[:, None])
+        wr[:, 0, 9:12] += cross3(q2, e3) / (2.0 * ql2[:, None])
         f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
         # f += B_i^T m_i with B_i = T^-1(th_i) (V_i - W_r): first y_i = T^-T m_i

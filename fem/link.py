@@ -12,6 +12,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .rotation import cross3
 from .rotation import logmap_moderate as logmap  # exact; cheaper while angles stay below 3 rad
 
 
@@ -90,9 +91,9 @@ class LinkGroup(ElementGroup):
         m = np.einsum("nij,nj->ni", to_global, m_loc)
         out = np.empty((u1.shape[0], 12))
         out[:, 0:3] = -f
-        out[:, 3:6] = -m - np.cross(a1, f) - np.cross(gap, f)
+        out[:, 3:6] = -m - cross3(a1, f) - cross3(gap, f)
         out[:, 6:9] = f
-        out[:, 9:12] = m + np.cross(a2, f)
+        out[:, 9:12] = m + cross3(a2, f)
         return out, slip, phi, f_loc, m_loc
 
     def _state(self, disp, rot):

@@ -8,6 +8,15 @@ from __future__ import annotations
 import numpy as np
 
 
+def cross3(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """Cross product of (..., 3) arrays (np.cross without its axis handling cost)."""
+    out = np.empty(np.broadcast_shapes(a.shape, b.shape))
+    out[..., 0] = a[..., 1] * b[..., 2] - a[..., 2] * b[..., 1]
+    out[..., 1] = a[..., 2] * b[..., 0] - a[..., 0] * b[..., 2]
+    out[..., 2] = a[..., 0] * b[..., 1] - a[..., 1] * b[..., 0]
+    return out
+
+
 def skew(v: np.ndarray) -> np.ndarray:
     """Skew matrix S(v) with S(v) a = v x a, shape (..., 3, 3)."""
     v = np.asarray(v, dtype=float)
