@@ -12,3 +12,12 @@ CAUTIONS: tuple[str, ...] = (
 
 #: the cautions as one paragraph
 CAUTION_TEXT = " ".join(CAUTIONS)
+
+
+def cautions_for(scenario) -> tuple[str, ...]:
+    """The general cautions, plus the tree cautions when an anchor is a living tree."""
+    if any(a.kind == "tree" for a in scenario.anchors):
+        from models.tree import TREE_CAUTIONS
+
+        return CAUTIONS + tuple(TREE_CAUTIONS)
+    return CAUTIONS

@@ -15,7 +15,7 @@ from pathlib import Path
 
 import numpy as np
 
-from models.cautions import CAUTIONS
+from models.cautions import cautions_for
 
 
 def _clean(value):
@@ -129,6 +129,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
     from importlib.metadata import PackageNotFoundError, version
 
     from models.installed import end_tensions, measured_sag
+    from models.run import anchor_shares
 
     try:
         ver = version("spanstay")
@@ -144,7 +145,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
     rider_line = system.lines[sc.rider.line]
     summary = {
         "spanstay": {"version": ver},
-        "cautions": list(CAUTIONS),
+        "cautions": list(cautions_for(sc)),
         "project": {"name": sc.project.name, "notes": sc.project.notes},
         "scenario_file": scenario_file,
         "units": units,
@@ -153,6 +154,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "passes": {k: _pass_dict(p) for k, p in result.passes.items()},
         "ride": {k: _ride_dict(r) for k, r in result.rides.items()},
         "slack_budget": result.slack.to_dict() if result.slack is not None else None,
+        "load_shares": anchor_shares(result),
         "checks": [c.to_dict() for c in result.checks],
         "model": {
             "parts": _parts(system),

@@ -201,3 +201,26 @@ def _checks(result: RunResult) -> list:
     checks += list(worst.values())
     checks += ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
     return checks
+
+
+def anchor_shares(result: RunResult) -> dict[str, dict]:
+    """How the line's pull on each guyed or braced anchor divides between its guys,
+    its brace and its footing (horizontal ground reactions) at the design pass's
+    station of largest cable tension."""
+    from models.anchor_checks import reaction_shares
+
+    design = result.passes["design"]
+    if not design.states:
+        return {}
+    k = int(np.argmax([st.tension_max for st in design.stations]))
+    out = {}
+    for name, anchor in result.system.anchors.items():
+        if not anchor.spec.guys and anchor.spec.brace is None:
+            continue
+        shares = reaction_shares(result.system.model, anchor, design.states[k])
+        horizontal = {part: float(np.hypot(*v[:2])) for part, v in shares.items()}
+        total = sum(horizontal.values()) or 1.0
+        out[name] = {"station": k, "along": design.stations[k].along,
+                     "horizontal": horizontal,
+                     "fraction": {part: v / total for part, v in horizontal.items()}}
+    return out

@@ -3,7 +3,7 @@ from __future__ import annotations
 
 import math
 
-from models.cautions import CAUTIONS
+from models.cautions import cautions_for
 from models.units import show
 
 #: check kinds and the unit kind models.units.show formats them with
@@ -69,6 +69,11 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         lines.append(f"  slack budget of the loaded sag {show(sb['loaded_sag'], 'length', units)}:")
         for name, v in sb["shares"].items():
             lines.append(f"    {name:<46} {_value(v, 'length', units)}")
+    from models.run import anchor_shares
+
+    for name, share in anchor_shares(result).items():
+        parts = ", ".join(f"{part} {100 * f:.0f} %" for part, f in share["fraction"].items() if f > 0.005)
+        lines.append(f"  anchor '{name}' holds the pull with: {parts}")
     lines.append("  checks:")
     failed = 0
     for c in result.checks:
@@ -82,5 +87,5 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
     lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
     lines.append(f"  results: {out_dir}")
     lines.append("")
-    lines += [f"CAUTION: {c}" for c in CAUTIONS]
+    lines += [f"CAUTION: {c}" for c in cautions_for(sc)]
     return lines
