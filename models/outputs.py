@@ -293,7 +293,8 @@ def write_results(result, out_dir: Path, scenario_file: str, units: str) -> Path
         _write_csv(tmp / "stations.csv", result)
         from models.report import write_report
 
-        write_report(tmp, summary)  # adds its own figures to summary["plots"]
+        (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
+        write_report(tmp, summary)  # reads the folder; adds its own figures to summary["plots"]
         (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
         if out_dir.exists():
             shutil.rmtree(out_dir)

@@ -129,8 +129,13 @@ def plot_ride_profile(
     feet = z - float(hang) / k
 
     fig, ax = _new_figure(size_px, dpi)
-    keep = (gd >= d.min() - 0.05 * np.ptp(d)) & (gd <= d.max() + 0.05 * np.ptp(d))
-    gd_shown, gz_shown = (gd[keep], gz[keep]) if keep.sum() >= 2 else (gd, gz)
+    # the ground over the ride's extent (plus a margin), cut at the window's edges
+    # by interpolation so a profile point beyond the edge still shapes the ground
+    lo, hi = d.min() - 0.05 * np.ptp(d), d.max() + 0.05 * np.ptp(d)
+    lo, hi = max(lo, gd.min()), min(hi, gd.max())
+    inside = (gd > lo) & (gd < hi)
+    gd_shown = np.concatenate([[lo], gd[inside], [hi]])
+    gz_shown = np.interp(gd_shown, gd, gz)
     floor = min(gz_shown.min(), feet.min()) - 0.1 * max(np.ptp(z), 1.0)
     ax.fill_between(gd_shown, gz_shown, floor, color=_GROUND_FILL, linewidth=0,
                     label="ground")
