@@ -164,6 +164,9 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
         out += line_checks(system, state, bl)
     for anchor in system.anchors.values():
         out += anchor_part_checks(system, state, anchor, duration, cache)
+        second = getattr(getattr(anchor, "brace", None), "second", None)
+        if second is not None:  # an H-brace's second post: its own post and footing checks
+            out += anchor_part_checks(system, state, second, duration, cache)
     out += extra_anchor_checks(system, state)
     for c in out:
         c.governing = dict(governing)
