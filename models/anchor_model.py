@@ -120,7 +120,8 @@ def _solid_post(model: Model, spec: AnchorSpec, base: np.ndarray, heights: np.nd
 
 
 def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_heights: list[float],
-               pull: np.ndarray, rigid: frozenset[str] = frozenset()) -> BuiltAnchor:
+               pull: np.ndarray, rigid: frozenset[str] = frozenset(),
+               slip: str = "service") -> BuiltAnchor:
     """Add an anchor to ``model``.
 
     Parameters
@@ -132,6 +133,10 @@ def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_height
         the lamination stack direction).
     rigid
         Parts to make (nearly) rigid: any of "post", "fasteners", "soil", "guy".
+    slip
+        Fastener slip modulus of laminated posts: "service" (K_ser, for
+        deflections and the ride) or "ultimate" (K_u = 2/3 K_ser, EC5 2.2.2,
+        for strength checks).
     """
     where = f"anchor '{spec.name}'"
     base = np.array([spec.x, spec.y, spec.grade])
@@ -154,7 +159,7 @@ def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_height
                 design = _stiffened_design(design, stiffen)
             slip_scale = RIGID if "fasteners" in rigid else 1.0
             lam = add_laminated_post(model, base, design, top, heights=heights_needed + [top],
-                                     pull=pull, slip="service", name=f"{spec.name}.post",
+                                     pull=pull, slip=slip, name=f"{spec.name}.post",
                                      attach_slip=None if slip_scale == 1.0 else None)
             if slip_scale != 1.0:
                 _stiffen_links(model, lam.mesh.link_group, slip_scale)

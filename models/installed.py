@@ -98,7 +98,8 @@ def solve_installed(system: System, state: State | None = None) -> State:
 
 def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
             lengths: dict[str, float] | None = None,
-            temperature: float | None = None) -> tuple[System, State, dict[str, float]]:
+            temperature: float | None = None,
+            slip: str = "service") -> tuple[System, State, dict[str, float]]:
     """Build and solve the installed state.
 
     Returns the system, its state and the unstressed lengths: each line's
@@ -115,7 +116,7 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
                 lengths[line.name] = rigid_support_length(line, span, drop)
             except ValueError as exc:
                 raise InputError(f"cannot hang the line as given: {exc}", f"line '{line.name}'") from None
-    system = build_system(scenario, lengths, rigid, temperature)
+    system = build_system(scenario, lengths, rigid, temperature, slip)
     wires = _wire_targets(system)
     if fixed_lengths:
         for name, _ in wires:

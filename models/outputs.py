@@ -240,7 +240,8 @@ def soil_profiles(result) -> dict:
         line = result.system.lines[result.scenario.rider.line]
         pull = (line.end_xyz - line.start_xyz)[:2]
         direction = pull if name == line.spec.end else -pull
-        r = footing_response(anchor.footing, result.system.model, design.states[k], direction)
+        dsys = result.design_system or result.system
+        r = footing_response(dsys.anchors[name].footing, dsys.model, design.states[k], direction)
         out[anchor.footing.member_group] = {
             "anchor": name, "station": k, "along": design.stations[k].along,
             "depth": r.depth, "p": r.p, "p_ultimate": r.p_ultimate, "ratio": r.ratio,

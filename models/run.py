@@ -38,6 +38,8 @@ class RunResult:
     clearance: Clearance | None = None
     slack: object | None = None
     checks: list = field(default_factory=list)
+    design_system: System | None = None     # laminated posts with K_u (else the same system)
+    design_installed: State | None = None
 
 
 def station_coordinates(system: System, state: State, line_name: str, start_offset: float,
@@ -102,8 +104,7 @@ def analyse(scenario: Scenario, stations: int | None = None,
     temps = list(scenario.settings.use_temperatures) + [t_inst]
     t_cold, t_hot = min(temps), max(temps)
     plan = [("ride_light", rider.lightest, t_inst, False),
-            ("ride_heavy", rider.heaviest, t_inst, True),
-            ("design", rider.heaviest * rider.dynamic_factor, t_cold, True)]
+            ("ride_heavy", rider.heaviest, t_inst, True)]
     if t_hot > t_inst + 0.05:
         plan.append(("hot", rider.heaviest, t_hot, False))
     passes: dict[str, Pass] = {}
@@ -112,19 +113,25 @@ def analyse(scenario: Scenario, stations: int | None = None,
         tick = (lambda lab=label: progress(lab, 1)) if progress else None
         passes[label] = run_pass(system, start, line, s, weight, label, temp, keep_states=keep,
                                  progress=tick)
-    # every other line of the scenario carries the same heaviest rider in turn, so the
-    # anchors it shares are checked under its pull too
-    for name in other_lines(scenario):
-        label = f"design-{name}"
-        s_other = station_coordinates(system, installed, name, rider.start_offset,
-                                      rider.stop_offset, count)
-        start = _at_temperature(system, installed, t_cold - t_inst)
+    _at_temperature(system, installed, 0.0)
+    # strength: laminated posts with the ultimate slip modulus K_u (EC5 2.2.2), the same
+    # cut cable and wire lengths; every line carries the heaviest rider in turn, so the
+    # anchors a line shares are checked under its pull too
+    design_system, design_installed = system, installed
+    if any(a.post is not None and a.post.kind == "laminated" for a in scenario.anchors):
+        design_system, design_installed, _ = install(scenario, lengths=lengths, slip="ultimate")
+    design_start = _at_temperature(design_system, design_installed, t_cold - t_inst)
+    for name in [rider.line] + other_lines(scenario):
+        label = "design" if name == rider.line else f"design-{name}"
+        s_line = s if name == rider.line else station_coordinates(
+            system, installed, name, rider.start_offset, rider.stop_offset, count)
         tick = (lambda lab=label: progress(lab, 1)) if progress else None
-        passes[label] = run_pass(system, start, system.lines[name], s_other,
+        passes[label] = run_pass(design_system, design_start, design_system.lines[name], s_line,
                                  rider.heaviest * rider.dynamic_factor, label, t_cold,
                                  keep_states=True, progress=tick)
-    _at_temperature(system, installed, 0.0)
-    result = RunResult(scenario, system, installed, lengths, s, passes)
+    _at_temperature(design_system, design_installed, 0.0)
+    result = RunResult(scenario, system, installed, lengths, s, passes,
+                       design_system=design_system, design_installed=design_installed)
     _ride(result)
     if slack_budget:
         from models.slack_budget import slack_budget as budget
@@ -194,7 +201,8 @@ def _checks(result: RunResult) -> list:
     for label, p in result.passes.items():
         if not label.startswith("design") or not p.states or structural_checks is None:
             continue
-        for c in structural_checks(result.system, p, installed=result.installed):
+        for c in structural_checks(result.design_system or result.system, p,
+                                   installed=result.design_installed or result.installed):
             old = worst.get(c.id)
             if old is None or _util(c) > _util(old):
                 worst[c.id] = c
@@ -217,7 +225,8 @@ def anchor_shares(result: RunResult) -> dict[str, dict]:
     for name, anchor in result.system.anchors.items():
         if not anchor.spec.guys and anchor.spec.brace is None:
             continue
-        shares = reaction_shares(result.system.model, anchor, design.states[k])
+        shares = reaction_shares(result.design_system.model, result.design_system.anchors[name],
+                                 design.states[k])
         horizontal = {part: float(np.hypot(*v[:2])) for part, v in shares.items()}
         total = sum(horizontal.values()) or 1.0
         out[name] = {"station": k, "along": design.stations[k].along,

@@ -95,18 +95,20 @@ def attach_heights(scenario: Scenario) -> dict[str, list[float]]:
 
 
 def build_system(scenario: Scenario, lengths: dict[str, float], rigid: frozenset[str] = frozenset(),
-                 temperature: float | None = None) -> System:
+                 temperature: float | None = None, slip: str = "service") -> System:
     """Build the model with each line's unstressed length from ``lengths``.
 
     Cable nodes start on the equilibrium of the segmented elastic cable
     (from the elastic catenary) between the undeformed attachment points. ``rigid`` may hold "cable", "post", "fasteners",
     "soil", "guy". ``temperature`` (K) sets the cables' thermal strain against
-    the installation temperature.
+    the installation temperature. ``slip`` selects the laminated posts'
+    fastener slip modulus ("service" or "ultimate").
     """
     model = Model()
     pulls = _pulls(scenario)
     heights = attach_heights(scenario)
-    anchors = {a.name: add_anchor(model, a, scenario.ground, heights[a.name], pulls[a.name], rigid)
+    anchors = {a.name: add_anchor(model, a, scenario.ground, heights[a.name], pulls[a.name], rigid,
+                                  slip)
                for a in scenario.anchors}
     lines = {}
     d_t = 0.0 if temperature is None else temperature - scenario.settings.install_temperature
