@@ -40,18 +40,18 @@ def test_every_starter_layout_validates(name):
 def test_two_posts_values_in_si():
     s = read_scenario(layout("two-posts"))
     line = s.lines[0]
-    assert line.sag == pytest.approx(1.5 * FT, rel=1e-12)
+    assert line.sag == pytest.approx(0.8 * FT, rel=1e-12)
     assert line.tension is None and line.unstressed_length is None
     # FAA AC 43.13-1B Table 7-3: 3/8 in 7x19, 14,400 lb
     assert line.rope.breaking_strength == pytest.approx(14400 * LBF, rel=1e-9)
     launch = s.anchor("launch")
-    # PS 20 dressed size of a 2x8: 1-1/2 x 7-1/4 in
+    # PS 20 dressed size of a 2x10: 1-1/2 x 9-1/4 in
     assert launch.post.ply.depth == pytest.approx(1.5 * INCH)
-    assert launch.post.ply.width == pytest.approx(7.25 * INCH)
+    assert launch.post.ply.width == pytest.approx(9.25 * INCH)
     assert launch.footing.pier_diameter == pytest.approx(18 * INCH)
-    # PS 20: a 6x6 timber dresses to 5-1/2 x 5-1/2 in
+    # PS 20: an 8x8 timber dresses to 7-1/2 x 7-1/2 in
     landing = s.anchor("landing")
-    assert landing.post.section.width == pytest.approx(5.5 * INCH)
+    assert landing.post.section.width == pytest.approx(7.5 * INCH)
     assert landing.grade == pytest.approx(-6 * FT)
     # 60 degF = 288.706 K (NIST SP 811 B.8)
     assert s.settings.install_temperature == pytest.approx((60 + 459.67) / 1.8)
