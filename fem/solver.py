@@ -181,15 +181,16 @@ def _newton(model, asm, coords, state, f_ext, opts, check_pivots=False):
     history: list[float] = []
     evals = _evaluate(model, asm, coords, state, False)
     r_full, f_int = _residual(asm, evals, f_ext)
+    last_disp_ok = at_roundoff = False  # set by each correction
     for it in range(opts.max_iterations + 1):
         ref = max(_norm(f_ext), _norm(f_int), 1e-30)
         rel = float(_norm(r_full[asm.free]) / ref)
         history.append(rel)
         if not np.isfinite(rel):
             raise _Fail("the residual is not finite", history, r_full)
-        if it > 0 and rel <= opts.force_tol and last_disp_ok:
+        if rel <= opts.force_tol and last_disp_ok:
             return state, history, evals
-        if it > 0 and at_roundoff and rel <= ROUNDOFF_ACCEPT * opts.force_tol:
+        if at_roundoff and rel <= ROUNDOFF_ACCEPT * opts.force_tol:
             return state, history, evals
         if it == 0 and rel <= opts.force_tol * 1e-2:
             return state, history, evals

@@ -159,8 +159,7 @@ def add_anchor(model: Model, spec: AnchorSpec, ground: GroundSpec, attach_height
                 design = _stiffened_design(design, stiffen)
             slip_scale = RIGID if "fasteners" in rigid else 1.0
             lam = add_laminated_post(model, base, design, top, heights=heights_needed + [top],
-                                     pull=pull, slip=slip, name=f"{spec.name}.post",
-                                     attach_slip=None if slip_scale == 1.0 else None)
+                                     pull=pull, slip=slip, name=f"{spec.name}.post")
             if slip_scale != 1.0:
                 _stiffen_links(model, lam.mesh.link_group, slip_scale)
             grade_node = lam.base_node

@@ -56,7 +56,7 @@ def add_tree(model: Model, spec: AnchorSpec, base: np.ndarray, heights: list[flo
         raise InputError(f"anchor '{spec.name}' is a tree but has no [anchor.tree] table", where)
     k_root = tree.root_plate_stiffness
     if k_root is None or not np.isfinite(k_root) or k_root <= 0:
-        raise InputError(f"a tree needs a root-plate rotational stiffness "
+        raise InputError("a tree needs a root-plate rotational stiffness "
                          '(root_plate_stiffness, e.g. "2e7 lbf*ft/rad") from an assessment of '
                          "the tree", f"{where}.root_plate_stiffness")
     top = max(list(heights) + [tree.attachment_height])

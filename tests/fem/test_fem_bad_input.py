@@ -126,7 +126,7 @@ def test_negative_weight_and_link_stiffness():
 @pytest.mark.parametrize("bad", [np.nan, np.inf, -np.inf])
 def test_non_finite_values_are_named(bad):
     m = three_nodes()
-    with raises(rf"node 4: coordinate y is not finite"):
+    with raises(r"node 4: coordinate y is not finite"):
         m.add_nodes([[5.0, 0, 0], [6.0, bad, 0]])
     with raises(r"add_load: load on node 2 rz is not finite"):
         m.add_load(2, [0, 0, 0, 0, 0, bad])
