@@ -269,14 +269,18 @@ def _write_plots(folder: Path, result, units: str) -> dict[str, str]:
         plot_speed(folder / "speed.png", {f"{k} rider": r for k, r in result.rides.items()}, units=units)
         plots["speed"] = "plots/speed.png"
     series = {}
+    names = {"ride_light": "lightest rider", "ride_heavy": "heaviest rider",
+             "hot": "heaviest rider, hottest day",
+             "design": f"design: heaviest x {sc.rider.dynamic_factor:g}, coldest day"}
     for label, p in result.passes.items():
-        if p.stations:
-            series[f"{label}: start end"] = (np.array([s.along for s in p.stations]),
-                                             np.array([s.tension_start for s in p.stations]))
+        if p.stations and label in names:
+            series[names[label]] = (np.array([s.along for s in p.stations]),
+                                    np.array([s.tension_max for s in p.stations]))
     if series:
         d0 = next(iter(series.values()))[0]
         rope = result.system.lines[sc.rider.line].spec.rope
         plot_tension(folder / "tension.png", d0, {k: v[1] for k, v in series.items() if len(v[1]) == len(d0)},
+                     title="Largest cable tension with the rider along the line",
                      allowable=rope.breaking_strength / sc.settings.factor_of_safety, units=units)
         plots["tension"] = "plots/tension.png"
     return plots
