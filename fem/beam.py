@@ -14,7 +14,7 @@ import numpy as np
 
 from .checks import as_array, positive
 from .errors import ModelError
-from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .group import FORWARD_STEP, ElementGroup, Evaluation, all_dofs, central_difference_tangent
 from .rotation import cross3, logmap_moderate, tangent_inverse
 
 
@@ -214,8 +214,9 @@ class BeamGroup(ElementGroup):
             return self._core(a1, a2, b1, b2, np.tile(self.frame0, (reps, 1, 1)), np.tile(self.L0, reps),
                               self.k_local, np.tile(self.chord0, (reps, 1)))[0]
 
-        k = central_difference_tangent(force_fn, u1, u2, r1, r2, steps_t=1e-7 * self.L0,
-                                       steps_r=np.full(self.size, 1e-7), translation_invariant=True)
+        k = central_difference_tangent(force_fn, u1, u2, r1, r2, steps_t=FORWARD_STEP * self.L0,
+                                       steps_r=np.full(self.size, FORWARD_STEP),
+                                       translation_invariant=True, base=f)
         return Evaluation(f, k)
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:

@@ -11,7 +11,7 @@ import numpy as np
 
 from .checks import as_array, positive
 from .errors import ModelError
-from .group import ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .group import FORWARD_STEP, ElementGroup, Evaluation, all_dofs, central_difference_tangent
 from .rotation import cross3
 from .rotation import logmap_moderate as logmap  # exact; cheaper while angles stay below 3 rad
 
@@ -116,8 +116,9 @@ class LinkGroup(ElementGroup):
             return self._forces(a, b, c, d, *self._consts(reps))[0]
 
         k = central_difference_tangent(force_fn, u1, u2, r1, r2,
-                                       steps_t=1e-7 * self.length_scale,
-                                       steps_r=np.full(self.size, 1e-7), translation_invariant=True)
+                                       steps_t=FORWARD_STEP * self.length_scale,
+                                       steps_r=np.full(self.size, FORWARD_STEP),
+                                       translation_invariant=True, base=f)
         return Evaluation(f, k)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
