@@ -238,7 +238,7 @@ def test_kicker_and_rail_above_post_top():
     data["anchor"][0]["brace"]["attach_height"] = "10 ft"
     fails(data, 'anchor[1] "launch".brace.attach_height', "above the top of the post")
     data = layout("h-brace")
-    data["anchor"][0]["brace"]["rail_height"] = "9 ft"  # second post is 8 ft
+    data["anchor"][0]["brace"]["second_post"]["height"] = "9 ft"  # rail at 10 ft
     fails(data, 'anchor[1] "launch".brace.rail_height', "shorter post")
 
 
