@@ -59,7 +59,7 @@ def write_vtu(path: str | os.PathLike, model, state, extra_point_data: dict | No
 
 
 def write_pvd(path: str | os.PathLike, entries: list[tuple[float, str]]) -> Path:
-    """Write a ParaView-readable collection of (time, relative .vtu path) entries."""
+    """Write a VTK collection file (.pvd) of (time, relative .vtu path) entries."""
     lines = ['<?xml version="1.0"?>',
              '<VTKFile type="Collection" version="0.1" byte_order="LittleEndian">',
              "  <Collection>"]

@@ -36,6 +36,7 @@ from models import lumber
 from models.nds import (AdjustedValues, adjusted_values, beam_stability_factor,
                         bending_effective_length, column_buckling_stress,
                         column_stability_factor)
+from models.json_safe import json_safe
 from models.spec import DEFAULT_FACTOR_OF_SAFETY
 from models.system import System
 
@@ -95,21 +96,7 @@ class Check:
 
     def to_dict(self) -> dict:
         """Plain JSON-ready dict; NaN and infinities become None."""
-        return _clean(asdict(self))
-
-
-def _clean(value):
-    if isinstance(value, dict):
-        return {str(k): _clean(v) for k, v in value.items()}
-    if isinstance(value, (list, tuple)):
-        return [_clean(v) for v in value]
-    if isinstance(value, (bool, np.bool_)):
-        return bool(value)
-    if isinstance(value, (int, np.integer)):
-        return int(value)
-    if isinstance(value, (float, np.floating)):
-        return float(value) if math.isfinite(value) else None
-    return value
+        return json_safe(asdict(self))
 
 
 # ----------------------------------------------------------------------------- driver

@@ -15,7 +15,7 @@ from fem.errors import FemError
 from models.catenary import length_for_sag, length_for_tension
 from models.errors import InputError
 from models.spec import LineSpec, Scenario
-from models.system import BuiltLine, System, build_system
+from models.system import BuiltLine, System, build_system, chain_between
 
 #: relative tolerance on the installed sag or tension found with deforming anchors
 MATCH_TOL = 1e-4
@@ -67,22 +67,13 @@ def hang_between_ends(system: System, state: State, line: BuiltLine) -> State:
     """A warm start with the cable re-hung, as a segmented elastic chain, between
     where its ends are now (its unstressed length may have changed: nodes left
     where they were would leave a lightly tensioned cable slack)."""
-    from models.catenary import chain_points
-
     model = system.model
     nodes = line.nodes
     ends = model.coords[nodes[[0, -1]]] + state.translation[nodes[[0, -1]]]
-    plan = (ends[1] - ends[0])[:2]
-    span = float(np.linalg.norm(plan))
-    rope = line.spec.rope
-    ea = float(model.group(line.group).EA[0])
     group = model.group(line.group)
     length = float(group.free_length().sum())  # at the cable's temperature
-    pts = chain_points(span, float(ends[0, 2] - ends[1, 2]), length, rope.weight_per_length, ea,
-                       nodes.size - 1)
-    plan = plan / span
-    xyz = np.column_stack([ends[0, 0] + plan[0] * pts[:, 0], ends[0, 1] + plan[1] * pts[:, 0],
-                           ends[0, 2] + pts[:, 1]])
+    xyz = chain_between(ends[0], ends[1], length, line.spec.rope.weight_per_length,
+                        float(group.EA[0]), nodes.size - 1)
     warm = state.copy()
     warm.translation[nodes[1:-1]] = xyz[1:-1] - model.coords[nodes[1:-1]]
     return warm

@@ -6,9 +6,7 @@ into place only when complete, so a failed run leaves nothing half-written.
 from __future__ import annotations
 
 import csv
-import dataclasses
 import json
-import math
 import shutil
 import tempfile
 from pathlib import Path
@@ -16,26 +14,7 @@ from pathlib import Path
 import numpy as np
 
 from models.cautions import cautions_for
-
-
-def _clean(value):
-    """JSON-safe copy: numpy to Python, NaN and infinities to None, tuples to lists."""
-    if dataclasses.is_dataclass(value) and not isinstance(value, type):
-        return _clean(dataclasses.asdict(value))
-    if isinstance(value, dict):
-        return {str(k): _clean(v) for k, v in value.items()}
-    if isinstance(value, (list, tuple)):
-        return [_clean(v) for v in value]
-    if isinstance(value, np.ndarray):
-        return _clean(value.tolist())
-    if isinstance(value, (np.floating, float)):
-        f = float(value)
-        return f if math.isfinite(f) else None
-    if isinstance(value, (np.integer,)):
-        return int(value)
-    if isinstance(value, np.bool_):
-        return bool(value)
-    return value
+from models.json_safe import json_safe
 
 
 def _pass_dict(p) -> dict:
@@ -176,7 +155,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         summary["ride"]["clearance"] = {"min": c.minimum, "at": c.minimum_distance,
                                         "feet_elevation": c.feet_elevation,
                                         "ground_elevation": c.ground_elevation}
-    return _clean(summary)
+    return json_safe(summary)
 
 
 def _write_csv(path: Path, result) -> None:

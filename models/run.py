@@ -190,25 +190,19 @@ def _util(check) -> float:
 
 
 def _checks(result: RunResult) -> list:
+    from models.checks import structural_checks
     from models.run_checks import ride_checks
 
-    checks = []
-    try:
-        from models.checks import structural_checks
-    except ImportError:  # pragma: no cover - lands with the checks module
-        structural_checks = None
     worst: dict[str, object] = {}
     for label, p in result.passes.items():
-        if not label.startswith("design") or not p.states or structural_checks is None:
+        if not label.startswith("design") or not p.states:
             continue
         for c in structural_checks(result.design_system or result.system, p,
                                    installed=result.design_installed or result.installed):
             old = worst.get(c.id)
             if old is None or _util(c) > _util(old):
                 worst[c.id] = c
-    checks += list(worst.values())
-    checks += ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
-    return checks
+    return list(worst.values()) + ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
 
 
 def anchor_shares(result: RunResult) -> dict[str, dict]:

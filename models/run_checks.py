@@ -1,21 +1,9 @@
 """Checks of the ride itself: arrival, arrival speed, feet clearance, equilibrium."""
 from __future__ import annotations
 
-import dataclasses
 import math
 
-
-def _check(**values):
-    """A models.checks.Check from keyword values (utilization and pass derived)."""
-    from models.checks import Check
-
-    demand, capacity = values["demand"], values["capacity"]
-    if "utilization" not in values:
-        values["utilization"] = (demand / capacity if capacity not in (0, None) and capacity > 0
-                                 else math.inf)
-    values.setdefault("passed", values["utilization"] <= 1.0)
-    names = {f.name for f in dataclasses.fields(Check)}
-    return Check(**{k: v for k, v in values.items() if k in names})
+from models.checks import Check
 
 
 def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
@@ -24,7 +12,7 @@ def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
     heavy = result.passes["ride_heavy"]
     for label, p in result.passes.items():
         if p.failed_at is not None:
-            out.append(_check(
+            out.append(Check(
                 id=f"structure.equilibrium.{label}", part="structure", where=label,
                 description=f"equilibrium with the rider ({label}); capacity exceeded",
                 demand=p.failed_at, capacity=p.stations[-1].s if p.stations else 0.0,
@@ -37,7 +25,7 @@ def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
     if light is not None:
         end = float(light.distance[-1])
         reached = end if light.reaches_end else float(light.stop_distance)
-        out.append(_check(
+        out.append(Check(
             id="ride.lightest.arrives", part="ride", where=result.scenario.rider.line,
             description="lightest rider reaches the far end", demand=end,
             capacity=max(reached, 1e-9), kind="length",
@@ -48,7 +36,7 @@ def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
     fast = [r for r in result.rides.values() if r.reaches_end]
     if fast:
         worst = max(fast, key=lambda r: r.arrival_speed)
-        out.append(_check(
+        out.append(Check(
             id="ride.arrival_speed", part="ride", where=result.scenario.rider.line,
             description="arrival speed at the far end", demand=float(worst.arrival_speed),
             capacity=max_arrival_speed, kind="speed",
@@ -57,7 +45,7 @@ def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
             source="a judgement of ours for a line without a brake; set your own with the brake you use"))
     if result.clearance is not None:
         c = result.clearance
-        out.append(_check(
+        out.append(Check(
             id="ride.clearance", part="ride", where=result.scenario.rider.line,
             description="rider's feet clear the ground", demand=min_clearance,
             capacity=c.minimum, kind="length",

@@ -120,18 +120,25 @@ def build_system(scenario: Scenario, lengths: dict[str, float], rigid: frozenset
     return System(scenario, model, anchors, lines, rigid)
 
 
+def chain_between(p1: np.ndarray, p2: np.ndarray, length: float, weight: float, EA: float,
+                  n: int) -> np.ndarray:
+    """(n + 1, 3) equilibrium points of an n-segment elastic cable hung from p1 to p2
+    (see :func:`models.catenary.chain_points`), in the vertical plane through both."""
+    plan = (p2 - p1)[:2]
+    span = float(np.linalg.norm(plan))
+    pts = chain_points(span, float(p1[2] - p2[2]), length, weight, EA, n)
+    plan = plan / span
+    return np.column_stack([p1[0] + plan[0] * pts[:, 0], p1[1] + plan[1] * pts[:, 0],
+                            p1[2] + pts[:, 1]])
+
+
 def _add_line(model: Model, line: LineSpec, n1: int, n2: int, p1: np.ndarray, p2: np.ndarray,
               L0: float, rigid: frozenset[str], d_t: float) -> BuiltLine:
     rope = line.rope
     n = max(int(line.segments), 4)
     k = n // 2
-    span = float(np.linalg.norm((p2 - p1)[:2]))
-    drop = float(p1[2] - p2[2])
     ea = rope.EA * (RIGID if "cable" in rigid else 1.0)
-    pts = chain_points(span, drop, L0, rope.weight_per_length, ea, n)[1:-1]
-    plan = (p2 - p1)[:2] / span
-    inner = np.column_stack([p1[0] + plan[0] * pts[:, 0], p1[1] + plan[1] * pts[:, 0], p1[2] + pts[:, 1]])
-    ids = model.add_nodes(inner)
+    ids = model.add_nodes(chain_between(p1, p2, L0, rope.weight_per_length, ea, n)[1:-1])
     nodes = np.concatenate([[n1], ids, [n2]])
     name = f"line.{line.name}"
     model.add_cables(nodes[:-1], nodes[1:], ea, np.full(n, L0 / n), weight=rope.weight_per_length,
