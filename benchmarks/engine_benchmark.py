@@ -27,9 +27,9 @@ import time
 
 import numpy as np
 
-import fem
-from fem.assembly import Assembler
-from fem.solver import TIMINGS
+import spanstay.fem as fem
+from spanstay.fem.assembly import Assembler
+from spanstay.fem.solver import TIMINGS
 
 SPAN = 30.0          # m between posts
 POST_HEIGHT = 4.0    # m above ground

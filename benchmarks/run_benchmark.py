@@ -21,10 +21,10 @@ ROOT = Path(__file__).resolve().parents[1]
 
 
 def bench(path: Path, stations: int) -> None:
-    import models.run as run
-    import models.slack_budget as slack
-    from models.outputs import write_results
-    from models.scenario import load_scenario
+    import spanstay.models.analysis.run as run
+    import spanstay.models.analysis.slack_budget as slack
+    from spanstay.models.outputs.results_folder import write_results
+    from spanstay.models.scenario.read import load_scenario
 
     scenario = load_scenario(path)
     phases: dict[str, float] = {}
@@ -73,7 +73,7 @@ def main() -> None:
     for path in paths:
         bench(path, args.stations)
     t0 = time.perf_counter()
-    subprocess.run([sys.executable, "-c", "from models.cli import main; main()", "--help"], check=True,
+    subprocess.run([sys.executable, "-c", "from spanstay.models.cli import main; main()", "--help"], check=True,
                    stdout=subprocess.DEVNULL, cwd=ROOT)
     print(f"spanstay --help (with interpreter start): {time.perf_counter() - t0:.2f} s")
 

@@ -29,8 +29,8 @@ def main() -> None:
 @click.option("--force", is_flag=True, help="Overwrite FILE if it exists.")
 def init(file: str, layout: str, force: bool) -> None:
     """Write a commented starter scenario to FILE."""
-    from models.errors import InputError
-    from models.starter import write_starter
+    from spanstay.models.common.errors import InputError
+    from spanstay.models.scenario.starter import write_starter
 
     try:
         path = write_starter(file, layout, force)
@@ -42,7 +42,7 @@ def init(file: str, layout: str, force: bool) -> None:
 def _nominal_length(scenario, line) -> float:
     """An unstressed length good enough to build the model for a check: the
     chord plus a little slack (the real one is found when solving)."""
-    from models.installed import line_geometry
+    from spanstay.models.analysis.installed import line_geometry
 
     if line.unstressed_length is not None:
         return line.unstressed_length
@@ -61,11 +61,11 @@ def validate(file: str, units: str | None) -> None:
     the parts are put together (a brace foot inside its post, a guy above the
     top) is reported here too.
     """
-    from fem.errors import FemError
-    from models.errors import InputError
-    from models.scenario import load_scenario
-    from models.scenario_summary import summary_text
-    from models.system import build_system
+    from spanstay.fem.errors import FemError
+    from spanstay.models.common.errors import InputError
+    from spanstay.models.scenario.read import load_scenario
+    from spanstay.models.scenario.summary import summary_text
+    from spanstay.models.parts.system import build_system
 
     try:
         scenario = load_scenario(file)
@@ -88,12 +88,12 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
     """Hang the line, move the riders along it, and check every part."""
     from pathlib import Path
 
-    from fem.errors import FemError
-    from models.errors import InputError
-    from models.outputs import write_results
-    from models.run import analyse, pass_count
-    from models.scenario import load_scenario
-    from models.terminal import summary_lines
+    from spanstay.fem.errors import FemError
+    from spanstay.models.common.errors import InputError
+    from spanstay.models.outputs.results_folder import write_results
+    from spanstay.models.analysis.run import analyse, pass_count
+    from spanstay.models.scenario.read import load_scenario
+    from spanstay.models.outputs.terminal import summary_lines
 
     path = Path(file)
     try:
@@ -136,8 +136,8 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
 def view(results: str, station: int | None, worst: bool, exaggerate: float | None, color: str,
          png: str | None, gif: str | None, frames: int | None, size: str) -> None:
     """Show a results folder in 3D: the deformed structure with the rider on the line."""
-    from models.errors import InputError
-    from models.view import run_view
+    from spanstay.models.common.errors import InputError
+    from spanstay.models.outputs.view import run_view
 
     try:
         said = run_view(results, station, worst, exaggerate, color, png, gif, frames, size)

@@ -11,7 +11,7 @@ import numpy as np
 import pytest
 from scipy.spatial.transform import Rotation
 
-import fem
+import spanstay.fem as fem
 
 SEC = fem.BeamSection.rectangle(10e9, 10e9 / 16, 0.1, 0.2)
 

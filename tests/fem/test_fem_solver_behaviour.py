@@ -4,8 +4,8 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-import fem
-from fem.assembly import Assembler
+import spanstay.fem as fem
+from spanstay.fem.assembly import Assembler
 
 
 class SaturatingLaw:

@@ -7,7 +7,7 @@ import meshio
 import numpy as np
 import pytest
 
-import fem
+import spanstay.fem as fem
 
 
 def guyed_post():

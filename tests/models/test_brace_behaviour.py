@@ -10,12 +10,12 @@ from dataclasses import replace
 import numpy as np
 import pytest
 
-from fem import Model, solve
-from models.anchor_checks import h_brace_checks
-from models.anchor_model import add_anchor
-from models.braces import add_h_brace, member_axial_force
-from models.guys import tune_pretension
-from models.spec import BraceSpec, FootingSpec, GroundSpec
+from spanstay.fem import Model, solve
+from spanstay.models.checks.anchors import h_brace_checks
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.parts.braces import add_h_brace, member_axial_force
+from spanstay.models.parts.guys import tune_pretension
+from spanstay.models.scenario.spec import BraceSpec, FootingSpec, GroundSpec
 from tests.reference.test_brace_statics import FOUR, anchor, h_brace
 
 FIXED = FootingSpec(kind="fixed", depth=0.0, pier_diameter=None, backfill=None,
@@ -83,11 +83,11 @@ def test_kicker_on_a_laminated_post_is_tied_to_the_plies_and_follows_statics():
     import tomllib
     from importlib import resources
 
-    from models.scenario import read_scenario
-    from models.system import attach_heights
+    from spanstay.models.scenario.read import read_scenario
+    from spanstay.models.parts.system import attach_heights
     from tests.reference.test_brace_statics import moment_y
 
-    data = tomllib.loads(resources.files("models").joinpath("layouts/two-posts.toml")
+    data = tomllib.loads(resources.files("spanstay.models.scenario").joinpath("layouts/two-posts.toml")
                          .read_text("utf-8"))
     launch = data["anchor"][0]
     launch.pop("guy", None)  # a kicker-braced post alone

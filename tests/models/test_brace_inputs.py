@@ -4,10 +4,10 @@ from dataclasses import replace
 import numpy as np
 import pytest
 
-from fem import Model
-from models.anchor_model import add_anchor
-from models.errors import InputError
-from models.spec import BraceSpec
+from spanstay.fem import Model
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.common.errors import InputError
+from spanstay.models.scenario.spec import BraceSpec
 from tests.reference.test_brace_statics import FOUR, GROUND, anchor, h_brace
 
 PULL = np.array([1.0, 0.0, 0.0])

@@ -7,14 +7,14 @@ from importlib import resources
 import numpy as np
 import pytest
 
-from models.anchor_checks import check_anchor, top_soil_class
-from models.braces import member_axial_force
-from models.installed import install
-from models.scenario import load_scenario
+from spanstay.models.checks.anchors import check_anchor, top_soil_class
+from spanstay.models.parts.braces import member_axial_force
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import load_scenario
 
 
 def layout(name):
-    return load_scenario(resources.files("models").joinpath(f"layouts/{name}.toml"))
+    return load_scenario(resources.files("spanstay.models.scenario").joinpath(f"layouts/{name}.toml"))
 
 
 def line_pull(system, state, anchor_name):
@@ -83,8 +83,8 @@ def test_examples_read_and_build(name):
     # examples/ scenarios read, pass the scenario checks and build with their guys/braces
     from pathlib import Path
 
-    from models.system import build_system
-    from models.installed import line_geometry, rigid_support_length
+    from spanstay.models.parts.system import build_system
+    from spanstay.models.analysis.installed import line_geometry, rigid_support_length
 
     path = Path(__file__).resolve().parents[2] / "examples" / f"{name}.toml"
     scenario = load_scenario(path)

@@ -1,8 +1,8 @@
 """The cautions shown with every result: the general ones always, the tree ones with a tree."""
 from pathlib import Path
 
-from models.cautions import CAUTIONS, cautions_for
-from models.scenario import load_scenario
+from spanstay.models.common.cautions import CAUTIONS, cautions_for
+from spanstay.models.scenario.read import load_scenario
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -15,7 +15,7 @@ def test_general_cautions_defer_to_engineers_codes_and_makers():
 
 
 def test_tree_anchor_adds_the_arborist_cautions():
-    tree = load_scenario(ROOT / "models" / "layouts" / "tree.toml")
+    tree = load_scenario(ROOT / "models" / "scenario" / "layouts" / "tree.toml")
     poles = load_scenario(ROOT / "examples" / "orchard-family-line.toml")
     assert cautions_for(poles) == CAUTIONS
     extra = " ".join(cautions_for(tree)[len(CAUTIONS):]).lower()

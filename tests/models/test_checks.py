@@ -1,15 +1,15 @@
-"""Behaviour of models.checks: bookkeeping over stations, ids, JSON, the anchor-check hook."""
+"""Behaviour of models.checks.structural: bookkeeping over stations, ids, JSON, the anchor-check hook."""
 import json
 import math
 
 import numpy as np
 import pytest
 
-from models.checks import Check, state_checks, structural_checks, unchecked_parts
-from models.footing import footing_response
-from models.installed import install
-from models.scenario import read_scenario
-from models.stations import run_pass
+from spanstay.models.checks.structural import Check, state_checks, structural_checks, unchecked_parts
+from spanstay.models.parts.footing import footing_response
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import read_scenario
+from spanstay.models.analysis.stations import run_pass
 
 LBF = 4.4482216152605  # N
 
@@ -106,8 +106,8 @@ def test_installed_state_is_checked_with_permanent_duration(embedded):
 
 
 def test_laminated_post_checks_come_from_check_laminated():
-    from models.laminated_checks import check_laminated
-    from models.laminated_results import laminated_results
+    from spanstay.models.checks.laminated import check_laminated
+    from spanstay.models.parts.laminated_results import laminated_results
 
     system, _, p = design_pass(scenario(LAMINATED, {"kind": "fixed"}), count=2, weight=500.0)
     by_id = {c.id: c for c in structural_checks(system, p)}

@@ -3,10 +3,10 @@ from pathlib import Path
 
 import numpy as np
 
-from models.checks import structural_checks
-from models.installed import install
-from models.scenario import load_scenario
-from models.stations import run_pass
+from spanstay.models.checks.structural import structural_checks
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import load_scenario
+from spanstay.models.analysis.stations import run_pass
 
 EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "h-brace.toml"
 

@@ -4,9 +4,9 @@ from dataclasses import replace
 import numpy as np
 import pytest
 
-from fem import Model
-from models.anchor_model import add_anchor
-from models.errors import InputError
+from spanstay.fem import Model
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.common.errors import InputError
 from tests.reference.test_brace_statics import GROUND, anchor
 from tests.reference.test_guy_statics import guy_spec
 

@@ -3,11 +3,11 @@ from types import SimpleNamespace
 
 import pytest
 
-from fem import Model
-from models.errors import InputError
-from models.fasteners import bolt, nail
-from models.laminated import add_laminated_post, design_from_post, laminated_design
-from models.lumber import INCH
+from spanstay.fem import Model
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.fasteners import bolt, nail
+from spanstay.models.parts.laminated import add_laminated_post, design_from_post, laminated_design
+from spanstay.models.catalogs.lumber import INCH
 
 W = 'anchor[2] "west post".post'
 

@@ -1,8 +1,8 @@
 """Catalog look-ups and their input errors."""
 import pytest
 
-from models.errors import InputError
-from models.lumber import (PSI, custom_size, design_values, green_wood, known_species,
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.lumber import (PSI, custom_size, design_values, green_wood, known_species,
                            parse_size, pole_values)
 
 

@@ -16,7 +16,7 @@ import numpy as np
 import pytest
 from PIL import Image
 
-from models.report import write_report
+from spanstay.models.outputs.report import write_report
 from view_results_fixture import make_results
 
 VOID = {"area", "base", "br", "col", "embed", "hr", "img", "input", "link", "meta", "source",

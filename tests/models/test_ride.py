@@ -5,8 +5,8 @@ import numpy as np
 import pytest
 from scipy.integrate import quad
 
-from models.errors import InputError
-from models.ride import feet_clearance, ride_speed
+from spanstay.models.common.errors import InputError
+from spanstay.models.analysis.ride import feet_clearance, ride_speed
 
 G = 9.80665
 X = np.linspace(0.0, 60.0, 61)

@@ -7,8 +7,8 @@ import numpy as np
 import pytest
 from matplotlib.image import imread
 
-from models.ride import feet_clearance, ride_speed
-from models.ride_plots import plot_ride_profile, plot_speed, plot_tension
+from spanstay.models.analysis.ride import feet_clearance, ride_speed
+from spanstay.models.outputs.ride_plots import plot_ride_profile, plot_speed, plot_tension
 
 X = np.linspace(0.0, 80.0, 81)
 Z = 9.0 - 0.2 * X + 0.0016 * X**2

@@ -4,8 +4,9 @@ from fractions import Fraction
 
 import pytest
 
-from models.errors import InputError
-from models.rope import catalog, find_rope, read_rope, rope_names
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.rope import catalog, find_rope, rope_names
+from spanstay.models.scenario.rope_entry import read_rope
 
 LBF = 4.4482216152605  # N, exact (NIST SP 811)
 INCH = 0.0254  # m, exact

@@ -7,7 +7,7 @@ from pathlib import Path
 import pytest
 from click.testing import CliRunner
 
-from models.cli import main
+from spanstay.models.cli import main
 
 EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "orchard-family-line.toml"
 LBF = 4.4482216152605  # N per lbf (NIST SP 811)

@@ -5,10 +5,10 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from models.run import analyse
-from models.scenario import load_scenario
+from spanstay.models.analysis.run import analyse
+from spanstay.models.scenario.read import load_scenario
 
-LAYOUT = Path(__file__).resolve().parents[2] / "models" / "layouts" / "two-posts.toml"
+LAYOUT = Path(__file__).resolve().parents[2] / "models" / "scenario" / "layouts" / "two-posts.toml"
 
 
 @pytest.fixture(scope="module")

@@ -4,9 +4,9 @@ import math
 import numpy as np
 import pytest
 
-from models.checks import structural_checks
-from models.run import analyse
-from models.scenario import read_scenario
+from spanstay.models.checks.structural import structural_checks
+from spanstay.models.analysis.run import analyse
+from spanstay.models.scenario.read import read_scenario
 
 ANGLE = math.radians(35.0)  # plan angle of the second line from the first
 

@@ -5,10 +5,10 @@ import tomllib
 import pytest
 from click.testing import CliRunner
 
-from models.cli import main
-from models.errors import InputError
-from models.scenario import load_scenario, read_scenario
-from models.starter import LAYOUTS, layout_text
+from spanstay.models.cli import main
+from spanstay.models.common.errors import InputError
+from spanstay.models.scenario.read import load_scenario, read_scenario
+from spanstay.models.scenario.starter import LAYOUTS, layout_text
 
 FT = 0.3048  # m, exact (NIST SP 811)
 INCH = 0.0254  # m, exact

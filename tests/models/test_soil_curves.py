@@ -2,10 +2,10 @@
 import numpy as np
 import pytest
 
-from models.py_curves import (APISandCurve, CombinedCurves, ElasticPlasticCurve,
+from spanstay.models.parts.py_curves import (APISandCurve, CombinedCurves, ElasticPlasticCurve,
                               MatlockClayCurve, UserModulusCurve, broms_sand_ultimate,
                               curves_for_profile, matlock_ultimate)
-from models.soil import SoilLayer, SoilProfile, preset_layer
+from spanstay.models.catalogs.soil import SoilLayer, SoilProfile, preset_layer
 
 Z = np.array([0.1, 0.5, 1.0, 2.0])
 

@@ -1,10 +1,10 @@
 """Bad footing input is an InputError naming the footing and the value."""
 import pytest
 
-from fem import BeamSection
-from models.errors import InputError
-from models.footing import Footing, FootingCase, build_case_model, concrete_pier_section, ibc_check
-from models.soil import SoilLayer, SoilProfile, preset_layer
+from spanstay.fem import BeamSection
+from spanstay.models.common.errors import InputError
+from spanstay.models.parts.footing import Footing, FootingCase, build_case_model, concrete_pier_section, ibc_check
+from spanstay.models.catalogs.soil import SoilLayer, SoilProfile, preset_layer
 
 POST = BeamSection.rectangle(11e9, 11e9 / 16, 0.14, 0.14)
 SAND = SoilProfile((preset_layer("medium_dense_sand", 0, 1.5),))

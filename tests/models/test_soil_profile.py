@@ -4,8 +4,8 @@ from types import SimpleNamespace
 import numpy as np
 import pytest
 
-from models.errors import InputError
-from models.soil import PRESETS, SoilLayer, SoilProfile, preset_layer, profile_from_specs
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.soil import PRESETS, SoilLayer, SoilProfile, preset_layer, profile_from_specs
 
 
 def sand(top, bottom, **kw):

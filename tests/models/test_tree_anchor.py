@@ -3,11 +3,11 @@ stem tapers as given; the root plate turns as a rotational spring (statics)."""
 import numpy as np
 import pytest
 
-from fem import Model, solve
-from models.anchor_checks import check_anchor
-from models.anchor_model import add_anchor
-from models.errors import InputError
-from models.spec import AnchorSpec, GroundSpec, TreeSpec
+from spanstay.fem import Model, solve
+from spanstay.models.checks.anchors import check_anchor
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.common.errors import InputError
+from spanstay.models.scenario.spec import AnchorSpec, GroundSpec, TreeSpec
 
 GROUND = GroundSpec(profile=(), soil=())
 

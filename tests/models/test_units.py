@@ -3,8 +3,8 @@ import math
 
 import pytest
 
-from models.errors import InputError
-from models.units import format_number, parse_quantity, parse_ratio, show, to_display
+from spanstay.models.common.errors import InputError
+from spanstay.models.common.units import format_number, parse_quantity, parse_ratio, show, to_display
 
 # Conversion factors: NIST SP 811 (2008), Appendix B.8/B.9. ft, in, lb, lbf and
 # mph are exact by definition; the others are NIST's rounded values, so the

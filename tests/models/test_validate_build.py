@@ -3,9 +3,9 @@ from pathlib import Path
 
 from click.testing import CliRunner
 
-from models.cli import main
+from spanstay.models.cli import main
 
-LAYOUTS = Path(__file__).resolve().parents[2] / "models" / "layouts"
+LAYOUTS = Path(__file__).resolve().parents[2] / "models" / "scenario" / "layouts"
 
 
 def test_kicker_foot_inside_the_post_is_reported_by_validate(tmp_path):

@@ -15,9 +15,9 @@ import pytest
 from click.testing import CliRunner
 from PIL import Image
 
-from models.cli import main
-from models.view_data import cell_field, load_results, part_cells, soil_reaction
-from models.view_scene import deformed, member_prisms
+from spanstay.models.cli import main
+from spanstay.models.outputs.view_data import cell_field, load_results, part_cells, soil_reaction
+from spanstay.models.outputs.view_scene import deformed, member_prisms
 from view_results_fixture import make_results
 
 STATIONS = 4

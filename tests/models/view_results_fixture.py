@@ -15,7 +15,7 @@ from pathlib import Path
 
 import numpy as np
 
-import fem
+import spanstay.fem as fem
 
 # -- invented fixture values (SI) -------------------------------------------
 E_WOOD, G_WOOD = 11e9, 11e9 / 16

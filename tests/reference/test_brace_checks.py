@@ -15,11 +15,11 @@ import math
 import numpy as np
 import pytest
 
-from fem import Model, solve
-from models.anchor_checks import (allowable_soil_bearing, hankinson, kicker_checks,
+from spanstay.fem import Model, solve
+from spanstay.models.checks.anchors import (allowable_soil_bearing, hankinson, kicker_checks,
                                   member_checks)
-from models.anchor_model import add_anchor
-from models.spec import BraceSpec
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.scenario.spec import BraceSpec
 from tests.reference.test_brace_statics import FOUR, GROUND, anchor
 
 PSI = 6894.757293168

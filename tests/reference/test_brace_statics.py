@@ -13,11 +13,11 @@ the base moment stays below 0.1 % of the line's moment), i.e. pinned bases.
 import numpy as np
 import pytest
 
-from fem import Model, solve
-from models.anchor_model import add_anchor
-from models.braces import member_axial_force
-from models.spec import AnchorSpec, BraceSpec, FootingSpec, GroundSpec, PostSpec, SectionSpec
-from models.rope import find_rope
+from spanstay.fem import Model, solve
+from spanstay.models.parts.anchor import add_anchor
+from spanstay.models.parts.braces import member_axial_force
+from spanstay.models.scenario.spec import AnchorSpec, BraceSpec, FootingSpec, GroundSpec, PostSpec, SectionSpec
+from spanstay.models.catalogs.rope import find_rope
 
 IN = 0.0254
 SIX = SectionSpec("6x6", 5.5 * IN, 5.5 * IN)   # PS 20 dressed size (references.md)

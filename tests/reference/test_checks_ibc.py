@@ -13,10 +13,10 @@ import numpy as np
 import pytest
 from scipy.optimize import brentq
 
-from models.checks import structural_checks
-from models.installed import install
-from models.scenario import read_scenario
-from models.stations import run_pass
+from spanstay.models.checks.structural import structural_checks
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import read_scenario
+from spanstay.models.analysis.stations import run_pass
 
 FT = 0.3048
 LBF = 4.4482216152605

@@ -13,10 +13,10 @@ import math
 import numpy as np
 import pytest
 
-from models.checks import structural_checks
-from models.installed import install
-from models.scenario import read_scenario
-from models.stations import run_pass
+from spanstay.models.checks.structural import structural_checks
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import read_scenario
+from spanstay.models.analysis.stations import run_pass
 
 PSI = 6894.757293168361   # Pa
 INCH = 0.0254             # m
@@ -178,7 +178,7 @@ def test_line_capacities_are_published_breaking_strength_over_five(solved):
 
 def test_permanent_pull_uses_permanent_load_duration(solved):
     system, design, _ = solved
-    from models.checks import state_checks
+    from spanstay.models.checks.structural import state_checks
 
     state = design.states[0]
     gov = {"pass": "installed", "rider_weight": 0.0, "station": None, "along": None}

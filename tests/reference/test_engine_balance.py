@@ -12,7 +12,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-import fem
+import spanstay.fem as fem
 
 BALANCE_RTOL = 1e-8  # issue 2: reactions balance applied loads to 1e-8 relative
 

@@ -15,7 +15,7 @@ from scipy.optimize import brentq
 from scipy.special import ellipk
 from scipy.spatial.transform import Rotation
 
-import fem
+import spanstay.fem as fem
 from test_engine_balance import assert_balance, nodal_loads, tight
 
 E = 10e9           # Pa, a softwood-like modulus

@@ -14,7 +14,7 @@ import numpy as np
 import pytest
 from scipy.optimize import brentq, fsolve
 
-import fem
+import spanstay.fem as fem
 from test_engine_balance import assert_balance, lumped_weight, nodal_loads, tight
 
 EA = 3.5e6   # N, a 1/4 in class wire rope (order of magnitude; any value will do here)

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
-import fem
+import spanstay.fem as fem
 from test_engine_balance import assert_balance, lumped_weight, nodal_loads
 from test_engine_beams import B, E, G, H, L, cantilever
 from test_engine_cables import _catenary_model

@@ -16,7 +16,7 @@ import numpy as np
 import pytest
 from scipy.integrate import solve_bvp
 
-import fem
+import spanstay.fem as fem
 from test_engine_balance import assert_balance, nodal_loads, tight
 
 E = 10e9

@@ -12,7 +12,7 @@ import numpy as np
 import pytest
 from scipy.spatial.transform import Rotation
 
-import fem
+import spanstay.fem as fem
 from test_engine_balance import assert_balance, nodal_loads, tight
 
 E, G = 10e9, 10e9 / 16

@@ -10,8 +10,8 @@ import pytest
 from scipy.integrate import quad
 from scipy.optimize import fsolve
 
-from models.footing_capacity import broms_clay_short_free_head, broms_sand_short_free_head
-from models.py_curves import broms_sand_ultimate
+from spanstay.models.analysis.capacity import broms_clay_short_free_head, broms_sand_short_free_head
+from spanstay.models.parts.py_curves import broms_sand_ultimate
 
 
 def test_sand_hand_value():

@@ -6,7 +6,7 @@ Sources: ACI 318-19 §19.2.2.1, E_c = 4700 sqrt(f'c) MPa for normalweight concre
 import numpy as np
 import pytest
 
-from models.footing import concrete_pier_section
+from spanstay.models.parts.footing import concrete_pier_section
 
 
 def test_pier_section_modulus_and_inertia():
@@ -20,10 +20,10 @@ def test_pier_section_modulus_and_inertia():
 def test_pushover_in_a_larger_model_along_y_matches_the_case_along_x():
     # Isotropic soil in plan: pushing the pier's post top along y in a model with a second
     # footing elsewhere gives the same curve as the footing on its own along x.
-    from fem import BeamSection, Model
-    from models.footing import Footing, FootingCase, add_footing
-    from models.footing_capacity import pushover, pushover_model
-    from models.soil import SoilProfile, preset_layer
+    from spanstay.fem import BeamSection, Model
+    from spanstay.models.parts.footing import Footing, FootingCase, add_footing
+    from spanstay.models.analysis.capacity import pushover, pushover_model
+    from spanstay.models.catalogs.soil import SoilProfile, preset_layer
 
     post = BeamSection.rectangle(11e9, 11e9 / 16, 0.14, 0.14)
     sand = SoilProfile((preset_layer("loose_sand", 0, 2.0),))

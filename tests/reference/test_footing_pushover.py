@@ -16,10 +16,10 @@ import numpy as np
 import pytest
 from scipy.optimize import brentq
 
-from fem import BeamSection
-from models.footing import Footing, FootingCase
-from models.footing_capacity import broms_sand_short_free_head, pushover, rigid_limit_load
-from models.soil import SoilLayer, SoilProfile
+from spanstay.fem import BeamSection
+from spanstay.models.parts.footing import Footing, FootingCase
+from spanstay.models.analysis.capacity import broms_sand_short_free_head, pushover, rigid_limit_load
+from spanstay.models.catalogs.soil import SoilLayer, SoilProfile
 
 GAMMA, PHI, D, L, E_LOAD = 18e3, 30.0, 0.3, 1.5, 1.0
 RIGID = BeamSection.circle(200e9, 80e9, D)  # EI = 8e7 N m^2: L/T about 0.9, rigid

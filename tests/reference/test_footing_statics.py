@@ -8,11 +8,11 @@ results move < 1 % when the mesh is made twice as fine.
 import numpy as np
 import pytest
 
-from fem import BeamSection, Model, solve
-from models.footing import (Footing, FootingCase, add_footing, concrete_pier_section,
+from spanstay.fem import BeamSection, Model, solve
+from spanstay.models.parts.footing import (Footing, FootingCase, add_footing, concrete_pier_section,
                             footing_response)
-from models.footing_capacity import CAPACITY_EXCEEDED, analyse_footing
-from models.soil import SoilProfile, preset_layer
+from spanstay.models.analysis.capacity import CAPACITY_EXCEEDED, analyse_footing
+from spanstay.models.catalogs.soil import SoilProfile, preset_layer
 
 POST = BeamSection.rectangle(11e9, 11e9 / 16, 0.14, 0.14)  # 6x6 timber post, E/G = 16
 SAND = SoilProfile((preset_layer("medium_dense_sand", 0, 3.0),))

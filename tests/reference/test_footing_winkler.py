@@ -14,9 +14,9 @@ import numpy as np
 import pytest
 from scipy.integrate import solve_bvp
 
-from fem import BeamSection, solve
-from models.footing import Footing, FootingCase, build_case_model, footing_response
-from models.soil import SoilLayer, SoilProfile
+from spanstay.fem import BeamSection, solve
+from spanstay.models.parts.footing import Footing, FootingCase, build_case_model, footing_response
+from spanstay.models.catalogs.soil import SoilLayer, SoilProfile
 
 EI = 2.0e6  # N m^2
 SECTION = BeamSection(200e9, 80e9, 0.01, EI / 200e9, EI / 200e9, 2 * EI / 200e9)  # no shear def.

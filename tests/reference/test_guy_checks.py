@@ -8,9 +8,9 @@ statics for the guy forces (see test_guy_statics).
 import numpy as np
 import pytest
 
-from fem import solve
-from models.anchor_checks import guy_checks, rope_capacity
-from models.guys import add_guy
+from spanstay.fem import solve
+from spanstay.models.checks.anchors import guy_checks, rope_capacity
+from spanstay.models.parts.guys import add_guy
 from tests.reference.test_guy_statics import guy_spec, pinned_post
 
 LBF = 4.4482216152605

@@ -10,10 +10,10 @@ link, taken as 1000 times stiffer than the guy.
 import numpy as np
 import pytest
 
-from fem import BeamSection, Model, solve
-from models.guys import add_guy, guy_state, tune_pretension
-from models.rope import find_rope
-from models.spec import GuySpec
+from spanstay.fem import BeamSection, Model, solve
+from spanstay.models.parts.guys import add_guy, guy_state, tune_pretension
+from spanstay.models.catalogs.rope import find_rope
+from spanstay.models.scenario.spec import GuySpec
 
 ROPE = find_rope("7x19-galv-1/4")
 POST = BeamSection.rectangle(11e9, 11e9 / 16, 0.14, 0.14)  # a 6x6 timber post
@@ -187,9 +187,9 @@ def test_guyed_anchor_shares_an_angled_pull_between_guys_and_footing():
     # guys' share plus the footing's share is the whole pull.
     from dataclasses import replace
 
-    from models.anchor_checks import reaction_shares
-    from models.anchor_model import add_anchor
-    from models.spec import FootingSpec
+    from spanstay.models.checks.anchors import reaction_shares
+    from spanstay.models.parts.anchor import add_anchor
+    from spanstay.models.scenario.spec import FootingSpec
     from tests.reference.test_brace_statics import GROUND, anchor
 
     fixed = FootingSpec(kind="fixed", depth=0.0, pier_diameter=None, backfill=None,

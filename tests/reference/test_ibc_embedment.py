@@ -8,8 +8,8 @@ import numpy as np
 import pint
 import pytest
 
-from models.errors import InputError
-from models.ibc_embedment import (check_embedment, lateral_bearing_per_depth,
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.ibc_embedment import (check_embedment, lateral_bearing_per_depth,
                                   required_depth_constrained, required_depth_nonconstrained,
                                   round_or_square_width)
 
@@ -106,9 +106,9 @@ def test_footing_check_uses_weakest_class_crossed_and_square_diagonal():
     # S1 = 100 d/3; cubic d^3 - c d - 1.09 h c = 0 with c = 7.02 x 500 / (100 x 1.4142)
     # = 24.82: d = 7.7 gives 456.5 - 191.1 - 270.5 = -5.1; d = 7.73 gives 461.9 - 191.9
     # - 270.5 = -0.5; d = 7.733 -> 0.0 ; so about 7.73 ft.
-    from fem import BeamSection
-    from models.footing import Footing, ibc_check
-    from models.soil import SoilProfile, preset_layer
+    from spanstay.fem import BeamSection
+    from spanstay.models.parts.footing import Footing, ibc_check
+    from spanstay.models.catalogs.soil import SoilProfile, preset_layer
 
     prof = SoilProfile((preset_layer("medium_dense_sand", 0, si(2, "ft")),
                         preset_layer("stiff_clay", si(2, "ft"), si(12, "ft"))))

@@ -3,12 +3,12 @@ import math
 
 import pytest
 
-from fem import Model, solve
-from models.fasteners import LBF, nail
-from models.laminated import add_laminated_post, laminated_design
-from models.laminated_checks import check_laminated
-from models.laminated_results import laminated_results
-from models.lumber import INCH, PSI
+from spanstay.fem import Model, solve
+from spanstay.models.catalogs.fasteners import LBF, nail
+from spanstay.models.parts.laminated import add_laminated_post, laminated_design
+from spanstay.models.checks.laminated import check_laminated
+from spanstay.models.parts.laminated_results import laminated_results
+from spanstay.models.catalogs.lumber import INCH, PSI
 
 
 def _side_by_side_post(P):

@@ -9,11 +9,11 @@ import numpy as np
 import pytest
 from scipy.integrate import solve_bvp
 
-from fem import Model, solve
-from models.fasteners import nail
-from models.gamma_method import effective_stiffness as gamma_ei
-from models.laminated import add_laminated_post, build_plies, laminated_design
-from models.laminated_results import effective_stiffness, laminated_results
+from spanstay.fem import Model, solve
+from spanstay.models.catalogs.fasteners import nail
+from spanstay.models.parts.gamma_method import effective_stiffness as gamma_ei
+from spanstay.models.parts.laminated import add_laminated_post, build_plies, laminated_design
+from spanstay.models.parts.laminated_results import effective_stiffness, laminated_results
 
 
 def _design(n, K=None, spacing=0.15, ply="2x8", length=2.5, angle=0.0):

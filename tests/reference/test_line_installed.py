@@ -10,11 +10,11 @@ import numpy as np
 import pytest
 from scipy.optimize import fsolve
 
-from models.catenary import midspan_sag, solve_catenary
-from models.installed import end_tensions, install, measured_sag
-from models.scenario import load_scenario
+from spanstay.models.parts.catenary import midspan_sag, solve_catenary
+from spanstay.models.analysis.installed import end_tensions, install, measured_sag
+from spanstay.models.scenario.read import load_scenario
 
-LAYOUT = Path(__file__).resolve().parents[2] / "models" / "layouts" / "two-posts.toml"
+LAYOUT = Path(__file__).resolve().parents[2] / "models" / "scenario" / "layouts" / "two-posts.toml"
 
 
 def irvine_reactions(span, drop, L0, w, EA):

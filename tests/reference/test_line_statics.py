@@ -11,10 +11,10 @@ import numpy as np
 import pytest
 from scipy.optimize import fsolve
 
-from fem import solve
-from models.installed import install
-from models.scenario import read_scenario
-from models.stations import place_rider, record
+from spanstay.fem import solve
+from spanstay.models.analysis.installed import install
+from spanstay.models.scenario.read import read_scenario
+from spanstay.models.analysis.stations import place_rider, record
 
 SPAN_FT, DROP_FT = 90.0, 3.0
 

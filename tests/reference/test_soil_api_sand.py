@@ -8,7 +8,7 @@ in their original form with tan(beta - phi), so they are an independent route).
 import numpy as np
 import pytest
 
-from models.py_curves import APISandCurve, api_sand_coefficients, api_sand_ultimate
+from spanstay.models.parts.py_curves import APISandCurve, api_sand_coefficients, api_sand_ultimate
 
 K0 = 0.4
 

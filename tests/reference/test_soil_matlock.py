@@ -8,7 +8,7 @@ transition depth x_r = 6 D / (gamma' D / c + J) (from memory).
 import numpy as np
 import pytest
 
-from models.py_curves import MatlockClayCurve, matlock_ultimate
+from spanstay.models.parts.py_curves import MatlockClayCurve, matlock_ultimate
 
 C, D, EPS50, GAMMA = 20e3, 0.3, 0.02, 8e3
 

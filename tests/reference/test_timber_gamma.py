@@ -3,8 +3,8 @@ import math
 
 import pytest
 
-from models.errors import InputError
-from models.gamma_method import effective_stiffness, gamma_factor, joint_shear_flow
+from spanstay.models.common.errors import InputError
+from spanstay.models.parts.gamma_method import effective_stiffness, gamma_factor, joint_shear_flow
 
 E = 11.0e9
 b, t = 0.184, 0.038          # ply 184 x 38 mm, stacked through the 38 mm thickness

@@ -3,8 +3,8 @@
 import numpy as np
 import pytest
 
-from models.lumber import PSI, design_values, parse_size
-from models.nds import (adjusted_values, beam_stability_factor, bending_compression,
+from spanstay.models.catalogs.lumber import PSI, design_values, parse_size
+from spanstay.models.catalogs.nds import (adjusted_values, beam_stability_factor, bending_compression,
                         bending_effective_length, column_stability_factor)
 
 

@@ -1,8 +1,8 @@
 """Dressed lumber sizes against the American Softwood Lumber Standard PS 20."""
 import pytest
 
-from models.errors import InputError
-from models.lumber import INCH, parse_size
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.lumber import INCH, parse_size
 
 # PS 20 dry dressed dimension lumber and green dressed timbers (inches),
 # as listed in shared/references.md.

@@ -3,10 +3,10 @@ import math
 
 import pytest
 
-from models.errors import InputError
-from models.fasteners import (LBF, bolt, check_fits, fastener, joint_density, lateral_value,
+from spanstay.models.common.errors import InputError
+from spanstay.models.catalogs.fasteners import (LBF, bolt, check_fits, fastener, joint_density, lateral_value,
                               nail, slip_modulus_ser, slip_modulus_ult, wood_screw)
-from models.lumber import INCH
+from spanstay.models.catalogs.lumber import INCH
 
 
 def test_nail_without_predrilling_table_7_1():

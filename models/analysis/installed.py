@@ -1,0 +1,169 @@
+"""Installed state: the line hung between its anchors under its own weight.
+
+The unstressed length comes from the scenario (given directly, or found from
+the installed sag or tension). Form-finding starts from the elastic catenary
+between rigid supports, then solves the whole structure, and, when a sag or
+tension was given, corrects the length by secant steps until the deforming
+anchors give the stated value.
+"""
+from __future__ import annotations
+
+import numpy as np
+
+from spanstay.fem import State, solve
+from spanstay.fem.errors import FemError
+from spanstay.models.parts.catenary import length_for_sag, length_for_tension
+from spanstay.models.common.errors import InputError
+from spanstay.models.scenario.spec import LineSpec, Scenario
+from spanstay.models.parts.system import BuiltLine, System, build_system, chain_between
+
+#: relative tolerance on the installed sag or tension found with deforming anchors
+MATCH_TOL = 1e-4
+
+
+def rigid_support_length(line: LineSpec, span: float, drop: float) -> float:
+    """Unstressed length from the scenario, with rigid supports."""
+    rope = line.rope
+    if line.unstressed_length is not None:
+        return line.unstressed_length
+    if line.sag is not None:
+        return length_for_sag(span, drop, line.sag, rope.weight_per_length, rope.EA)
+    return length_for_tension(span, drop, line.tension, rope.weight_per_length, rope.EA)
+
+
+def line_geometry(scenario: Scenario, line: LineSpec) -> tuple[float, float]:
+    """Horizontal span and drop (start above end, m) between attachment points."""
+    a, b = scenario.anchor(line.start), scenario.anchor(line.end)
+    span = float(np.hypot(b.x - a.x, b.y - a.y))
+    drop = (a.grade + line.start_height) - (b.grade + line.end_height)
+    return span, drop
+
+
+def measured_sag(system: System, state: State, line: BuiltLine) -> float:
+    """Mid-span sag below the chord between the deformed attachment points."""
+    pos = system.model.coords[line.nodes] + state.translation[line.nodes]
+    along = line.along(pos)
+    x_mid = 0.5 * (along[0] + along[-1])
+    z_mid = np.interp(x_mid, along, pos[:, 2])
+    chord = pos[0, 2] + (pos[-1, 2] - pos[0, 2]) * (x_mid - along[0]) / (along[-1] - along[0])
+    return float(chord - z_mid)
+
+
+def end_tensions(system: System, state: State, line: BuiltLine) -> tuple[float, float]:
+    """Tension in the first and last segment."""
+    t = state.group(line.group).tension
+    return float(t[0]), float(t[-1])
+
+
+def _target(line: LineSpec):
+    if line.sag is not None:
+        return line.sag, lambda sys_, st, bl: measured_sag(sys_, st, bl)
+    if line.tension is not None:
+        return line.tension, lambda sys_, st, bl: max(end_tensions(sys_, st, bl))
+    return None, None
+
+
+def hang_between_ends(system: System, state: State, line: BuiltLine) -> State:
+    """A warm start with the cable re-hung, as a segmented elastic chain, between
+    where its ends are now (its unstressed length may have changed: nodes left
+    where they were would leave a lightly tensioned cable slack)."""
+    model = system.model
+    nodes = line.nodes
+    ends = model.coords[nodes[[0, -1]]] + state.translation[nodes[[0, -1]]]
+    group = model.group(line.group)
+    length = float(group.free_length().sum())  # at the cable's temperature
+    xyz = chain_between(ends[0], ends[1], length, line.spec.rope.weight_per_length,
+                        float(group.EA[0]), nodes.size - 1)
+    warm = state.copy()
+    warm.translation[nodes[1:-1]] = xyz[1:-1] - model.coords[nodes[1:-1]]
+    return warm
+
+
+def solve_installed(system: System, state: State | None = None) -> State:
+    """Equilibrium of the structure under self-weight and pretensions."""
+    try:
+        return solve(system.model, state=state, steps=1)
+    except FemError as exc:
+        raise InputError(f"the installed state has no equilibrium: {exc}", "line") from None
+
+
+def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
+            lengths: dict[str, float] | None = None,
+            temperature: float | None = None,
+            slip: str = "service") -> tuple[System, State, dict[str, float]]:
+    """Build and solve the installed state.
+
+    Returns the system, its state and the unstressed lengths: each line's
+    (key: line name) and each pretensioned guy's or brace wire's (key:
+    "wire:<group>"). When ``lengths`` is given (re-solves of the slack
+    budget) they are used as they are: the cables were cut to length once.
+    """
+    fixed_lengths = lengths is not None
+    if lengths is None:
+        lengths = {}
+        for line in scenario.lines:
+            span, drop = line_geometry(scenario, line)
+            try:
+                lengths[line.name] = rigid_support_length(line, span, drop)
+            except ValueError as exc:
+                raise InputError(f"cannot hang the line as given: {exc}", f"line '{line.name}'") from None
+    system = build_system(scenario, lengths, rigid, temperature, slip)
+    wires = _wire_targets(system)
+    if fixed_lengths:
+        for name, _ in wires:
+            if f"wire:{name}" in lengths:
+                system.model.group(name).L0[:] = lengths[f"wire:{name}"]
+        return system, solve_installed(system), dict(lengths)
+    state = solve_installed(system)
+    # the line's sag or tension and the guys' pretensions are all stated on the
+    # finished structure: match them in turn until both hold
+    for _ in range(3 if wires else 1):
+        if wires:
+            state = _tune_wires(system, wires, state)
+        state = _match_lines(scenario, system, state)
+    for line in scenario.lines:
+        lengths[line.name] = system.lines[line.name].L0
+    for name, _ in wires:
+        lengths[f"wire:{name}"] = float(system.model.group(name).L0[0])
+    return system, state, lengths
+
+
+def _wire_targets(system: System) -> list[tuple[str, float]]:
+    """(cable group, pretension) of every pretensioned guy and brace wire."""
+    from spanstay.models.parts.guys import pretension_targets
+
+    return [t for anchor in system.anchors.values() for t in pretension_targets(anchor)]
+
+
+def _tune_wires(system: System, wires, state: State) -> State:
+    from spanstay.models.parts.guys import tune_pretension
+
+    try:
+        return tune_pretension(system.model, wires, state)
+    except FemError as exc:
+        raise InputError(f"the guys cannot be brought to their pretension: {exc}", "anchor") from None
+
+
+def _match_lines(scenario: Scenario, system: System, state: State) -> State:
+    """Secant steps on each line's unstressed length to meet its stated sag or tension."""
+    for line in scenario.lines:
+        target, measure = _target(line)
+        if target is None:
+            continue
+        bl = system.lines[line.name]
+        group = system.model.group(bl.group)
+        L_a, v_a = bl.L0, measure(system, state, bl)
+        if abs(v_a - target) <= MATCH_TOL * abs(target):
+            continue
+        L_b = L_a * (1.0 + (1e-4 if line.sag is not None else -1e-5) * np.sign(target - v_a))
+        for _ in range(12):
+            group.L0[:] = L_b / group.L0.size
+            bl.L0 = L_b
+            state = solve_installed(system, hang_between_ends(system, state, bl))
+            v_b = measure(system, state, bl)
+            if abs(v_b - target) <= MATCH_TOL * abs(target):
+                break
+            if v_b == v_a:
+                break
+            L_a, v_a, L_b = L_b, v_b, L_b + (target - v_b) * (L_b - L_a) / (v_b - v_a)
+    return state

@@ -1,0 +1,157 @@
+"""Moving the rider along the line: one equilibrium per station, warm-started."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Callable
+
+import numpy as np
+
+from spanstay.fem import SolverOptions, State, solve
+from spanstay.fem.errors import FemError
+
+#: a station that still fails after its step is cut to 1/32 is taken as the limit of the
+#: structure (capacity exceeded); cutting on to tiny steps only costs time
+STATION_OPTIONS = SolverOptions(min_increment=1.0 / 32.0)
+from spanstay.models.parts.system import BuiltLine, System
+
+
+@dataclass
+class StationResult:
+    """What one station of a pass records (SI)."""
+
+    s: float                       # unstressed arc coordinate of the rider
+    along: float                   # horizontal distance from the start attachment
+    rider: np.ndarray              # rider attachment point (deformed), xyz
+    sag: float                     # rider below the undeformed chord
+    tension_start: float
+    tension_end: float
+    tension_max: float
+    anchor_disp: dict[str, np.ndarray]   # anchor -> displacement of its line attachment
+    anchor_top: dict[str, np.ndarray]    # anchor -> displacement of the post top
+    soil_ratio: dict[str, float]         # anchor -> largest p/p_u
+    ground_rotation: dict[str, float]    # anchor -> ground-line rotation (rad)
+    guy_tension: dict[str, float]        # guy group -> tension
+    converged: bool = True
+    message: str = ""
+
+
+@dataclass
+class Pass:
+    """The rider at every station for one weight and temperature."""
+
+    label: str
+    weight: float
+    temperature: float
+    stations: list[StationResult] = field(default_factory=list)
+    states: list[State] = field(default_factory=list)
+    failed_at: float | None = None
+    failure: str = ""
+
+
+def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float) -> State:
+    """Move the rider node to arc coordinate ``s`` and return a warm start.
+
+    The predictor keeps the strain of every segment: the rider point goes
+    where the cable on each side keeps its previous chord-to-length ratio
+    (two circles about the attachments, in the vertical plane of the line),
+    and each side is mapped onto its new chord by a similarity (rotation and
+    uniform scale), so its segments stretch as their unstressed lengths do. Moving nodes along the old polyline instead would cut across the
+    rider's kink and leave segments slack, which Newton handles badly.
+    """
+    model = system.model
+    nodes, k = line.nodes, line.k
+    old_len = line.arc_coordinates(line.rider_s)[k]
+    pos = model.coords[nodes] + state.translation[nodes]
+    a, b, p_old = pos[0], pos[-1], pos[k]
+    r1 = np.linalg.norm(p_old - a) * s / old_len
+    r2 = np.linalg.norm(b - p_old) * (line.L0 - s) / (line.L0 - old_len)
+    d = np.linalg.norm(b - a)
+    e = (b - a) / d
+    down = np.array([0.0, 0.0, -1.0]) + e[2] * e  # -z without its part along e
+    down /= np.linalg.norm(down)
+    if r1 + r2 > d:
+        along = (r1**2 - r2**2 + d**2) / (2.0 * d)
+        p_new = a + along * e + np.sqrt(max(r1**2 - along**2, 0.0)) * down
+    else:  # both sides must stretch to reach: share the stretch in proportion
+        p_new = a + d * r1 / (r1 + r2) * e
+    new = pos.copy()
+    new[:k + 1] = _similar(pos[:k + 1], a, p_old, a, p_new)
+    new[k:] = _similar(pos[k:], p_old, b, p_new, b)
+    warm = state.copy()
+    inner = nodes[1:-1]
+    warm.translation[inner] = new[1:-1] - model.coords[inner]
+    model.group(line.group).L0[:] = line.segment_lengths(s)
+    line.rider_s = s
+    model.set_load(line.rider_node, [0.0, 0.0, -weight])
+    return warm
+
+
+def _similar(points: np.ndarray, a0, b0, a1, b1) -> np.ndarray:
+    """Map points by the similarity taking segment a0-b0 onto a1-b1."""
+    from spanstay.fem.rotation import expmap
+
+    u, w = b0 - a0, b1 - a1
+    scale = np.linalg.norm(w) / np.linalg.norm(u)
+    u, w = u / np.linalg.norm(u), w / np.linalg.norm(w)
+    axis = np.cross(u, w)
+    sin, cos = np.linalg.norm(axis), float(u @ w)
+    rot = expmap(axis / sin * np.arctan2(sin, cos)) if sin > 1e-14 else np.eye(3)
+    return a1 + scale * (points - a0) @ rot.T
+
+
+def record(system: System, state: State, line: BuiltLine) -> StationResult:
+    """Station quantities of a solved state."""
+    from spanstay.models.parts.footing import footing_response
+
+    model = system.model
+    rider = model.coords[line.rider_node] + state.translation[line.rider_node]
+    along = float(line.along(rider))
+    t = state.group(line.group).tension
+    disp, top, soil, rot, guys = {}, {}, {}, {}, {}
+    for name, anchor in system.anchors.items():
+        h = line.spec.start_height if name == line.spec.start else line.spec.end_height
+        node = anchor.node_at(h) if name in (line.spec.start, line.spec.end) else anchor.top_node
+        disp[name] = state.translation[node].copy()
+        top[name] = state.translation[anchor.top_node].copy()
+        if anchor.footing is not None:
+            pull = line.end_xyz - line.start_xyz
+            direction = pull[:2] if name == line.spec.end else -pull[:2]
+            resp = footing_response(anchor.footing, model, state, direction)
+            soil[name] = resp.max_ratio
+            rot[name] = resp.ground_rotation
+        for g in anchor.groups.get("guy", []):
+            if not g.endswith(".ground"):
+                guys[g] = float(state.group(g).tension[0])
+    return StationResult(float(line.rider_s), along, rider, float(line.chord_z(along) - rider[2]),
+                         float(t[0]), float(t[-1]), float(t.max()), disp, top, soil, rot, guys)
+
+
+def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.ndarray,
+             weight: float, label: str, temperature: float, keep_states: bool = False,
+             progress: Callable[[], None] | None = None) -> Pass:
+    """Solve the rider at every arc coordinate in ``stations_s`` (in order)."""
+    result = Pass(label, weight, temperature)
+    state = installed
+    line.rider_s = None
+    cable = system.model.group(line.group)
+    cable.L0[:] = line.segment_lengths(None)  # the installed state's even division
+    first = True
+    for s in stations_s:
+        warm = place_rider(system, line, state, float(s), weight)
+        try:
+            state = solve(system.model, state=warm, steps=4 if first else 1,
+                          options=STATION_OPTIONS)
+        except FemError as exc:
+            result.failed_at = float(s)
+            result.failure = str(exc)
+            break
+        first = False
+        result.stations.append(record(system, state, line))
+        if keep_states:
+            result.states.append(state)
+        if progress is not None:
+            progress()
+    system.model.set_load(line.rider_node, [0.0, 0.0, 0.0])
+    cable.L0[:] = line.segment_lengths(None)
+    line.rider_s = None
+    return result

@@ -1,0 +1,2 @@
+"""Code and practice checks of analysed passes, one module per part kind (line, posts, laminated
+posts, soil, guys and braces, trees, ride). Imports analysis and the packages above."""

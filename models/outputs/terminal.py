@@ -1,0 +1,91 @@
+"""The terminal summary of a run, in the user's units, ending with the cautions."""
+from __future__ import annotations
+
+import math
+
+from spanstay.models.common.cautions import cautions_for
+from spanstay.models.common.units import show
+
+#: check kinds and the unit kind models.common.units.show formats them with
+_KIND_UNITS = {"force": "force", "stress": "pressure", "length": "length", "speed": "speed",
+               "moment": "moment"}
+
+
+def _value(value, kind: str, units: str) -> str:
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return "-"
+    if kind == "angle":
+        return f"{math.degrees(value):.2f} deg"
+    if kind in _KIND_UNITS:
+        try:
+            return show(value, _KIND_UNITS[kind], units)
+        except (KeyError, ValueError):
+            pass
+    return f"{value:.3g}"
+
+
+def _governing(gov: dict, units: str) -> str:
+    """Which pass, rider and station governs a check, as a short bracket."""
+    parts = []
+    if gov.get("pass"):
+        parts.append(str(gov["pass"]))
+    if gov.get("rider_weight"):
+        parts.append(f"rider {show(gov['rider_weight'], 'force', units)}")
+    if gov.get("along") is not None:
+        parts.append(f"at {show(gov['along'], 'length', units)}")
+    return f"  [{', '.join(parts)}]" if parts else ""
+
+
+def summary_lines(result, out_dir, units: str) -> list[str]:
+    """Lines of text summing up a run."""
+    from spanstay.models.analysis.installed import end_tensions, measured_sag
+
+    sc, system = result.scenario, result.system
+    lines = [f"spanstay run: {sc.project.name}"]
+    for name, line in system.lines.items():
+        t0, t1 = end_tensions(system, result.installed, line)
+        lines.append(f"  installed line '{name}': sag {show(measured_sag(system, result.installed, line), 'length', units)}, "
+                     f"end tensions {show(t0, 'force', units)} / {show(t1, 'force', units)}, "
+                     f"unstressed length {show(result.lengths[name], 'length', units)}")
+    for label, p in result.passes.items():
+        if p.stations:
+            tmax = max(s.tension_max for s in p.stations)
+            smax = max(s.sag for s in p.stations)
+            lines.append(f"  {label:<10} rider {show(p.weight, 'force', units)}: {len(p.stations)} stations, "
+                         f"largest tension {show(tmax, 'force', units)}, largest sag {show(smax, 'length', units)}")
+        if p.failed_at is not None:
+            lines.append(f"  {label:<10} NO EQUILIBRIUM with the rider {show(p.failed_at, 'length', units)} "
+                         f"along the cable: {p.failure[:160]}")
+    for key, r in result.rides.items():
+        end = (f"arrives at {show(r.arrival_speed, 'speed', units)}" if r.reaches_end
+               else f"STOPS {show(r.stop_distance, 'length', units)} along the line")
+        lines.append(f"  ride, {key} rider: top speed {show(r.top_speed, 'speed', units)}, {end}")
+    if result.clearance is not None:
+        c = result.clearance
+        lines.append(f"  smallest feet clearance {show(c.minimum, 'length', units)} at "
+                     f"{show(c.minimum_distance, 'length', units)}")
+    if result.slack is not None and result.slack.shares:
+        sb = result.slack.to_dict()
+        lines.append(f"  slack budget of the loaded sag {show(sb['loaded_sag'], 'length', units)}:")
+        for name, v in sb["shares"].items():
+            lines.append(f"    {name:<46} {_value(v, 'length', units)}")
+    from spanstay.models.analysis.run import anchor_shares
+
+    for name, share in anchor_shares(result).items():
+        parts = ", ".join(f"{part} {100 * f:.0f} %" for part, f in share["fraction"].items() if f > 0.005)
+        lines.append(f"  anchor '{name}' holds the pull with: {parts}")
+    lines.append("  checks:")
+    failed = 0
+    for c in result.checks:
+        d = c.to_dict()
+        mark = "ok  " if d["passed"] else "FAIL"
+        failed += not d["passed"]
+        util = d["utilization"]
+        util_s = f"{util:5.2f}" if util is not None else "  -  "
+        lines.append(f"    {mark} {util_s}  {d['where']}: {d['description']}: {_value(d['demand'], d['kind'], units)} "
+                     f"vs {_value(d['capacity'], d['kind'], units)}{_governing(d.get('governing') or {}, units)}")
+    lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
+    lines.append(f"  results: {out_dir}")
+    lines.append("")
+    lines += [f"CAUTION: {c}" for c in cautions_for(sc)]
+    return lines

@@ -1,0 +1,196 @@
+"""Reading one TOML table with key paths, unit parsing, ranges and "did you mean".
+
+Every error is an :class:`models.common.errors.InputError` whose ``where`` is the key
+path in the file, e.g. ``anchor[2] "upper".post.height`` (arrays counted from 1).
+"""
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable
+from typing import Any
+
+from spanstay.models.common.errors import InputError, did_you_mean
+from spanstay.models.common.units import DIMENSIONS, parse_quantity, parse_ratio
+
+REQUIRED: Any = object()  # marker: the key must be present
+
+
+def _kind_of(value: Any) -> str:
+    return {dict: "a table", list: "an array", str: "a string", bool: "true/false",
+            int: "a number", float: "a number"}.get(type(value), type(value).__name__)
+
+
+class Table:
+    """A TOML table being read, with its key path and the keys it may hold.
+
+    Parameters
+    ----------
+    data
+        The parsed table.
+    path
+        Key path of the table ("" for the top level).
+    allowed
+        Keys this table may contain; any other key is an error with a
+        "did you mean" suggestion.
+    """
+
+    def __init__(self, data: Any, path: str, allowed: Iterable[str]) -> None:
+        if not isinstance(data, dict):
+            raise InputError(f"expected a table, got {_kind_of(data)}", path or None)
+        self.data = data
+        self.path = path
+        self.allowed = tuple(allowed)
+        for key in data:
+            if key not in self.allowed:
+                raise InputError(f'unknown key "{key}"{did_you_mean(key, self.allowed)}',
+                                 self.where(key))
+
+    def where(self, key: str) -> str:
+        """Key path of ``key`` in this table."""
+        return f"{self.path}.{key}" if self.path else key
+
+    def has(self, key: str) -> bool:
+        return key in self.data
+
+    def raw(self, key: str, default: Any = REQUIRED, expected: str = "a value") -> Any:
+        """The value as written, or ``default``; a missing required key is an error."""
+        if key in self.data:
+            return self.data[key]
+        if default is REQUIRED:
+            raise InputError(f'missing required key "{key}" ({expected})',
+                             self.where(key))
+        return default
+
+    def forbid(self, keys: Iterable[str], reason: str) -> None:
+        """Reject keys that do not apply here (e.g. ``diameter`` on a sawn post)."""
+        for key in keys:
+            if key in self.data:
+                raise InputError(f'"{key}" does not apply {reason}', self.where(key))
+
+    def one_of(self, keys: Iterable[str], required: bool = True) -> str | None:
+        """The single key of ``keys`` present; an error if several (or none, if required)."""
+        keys = tuple(keys)
+        present = [k for k in keys if k in self.data]
+        names = ", ".join(f'"{k}"' for k in keys)
+        if len(present) > 1:
+            raise InputError(f"give only one of {names}; found "
+                             + " and ".join(f'"{k}"' for k in present), self.where(present[1]))
+        if not present:
+            if required:
+                raise InputError(f"give one of {names}", self.path or None)
+            return None
+        return present[0]
+
+    def quantity(self, key: str, dimension: str, default: Any = REQUIRED, *,
+                 positive: bool = False, minimum: float | None = None,
+                 maximum: float | None = None) -> Any:
+        """A quantity with units, in SI. Range limits are SI values."""
+        dim = DIMENSIONS[dimension]
+        value = self.raw(key, default, f'{dim.words}, e.g. "{dim.example}"')
+        if key not in self.data:
+            return value
+        si = parse_quantity(value, dimension, self.where(key))
+        self._check_range(key, si, value, positive, minimum, maximum, dimension)
+        return si
+
+    def number(self, key: str, default: Any = REQUIRED, *, positive: bool = False,
+               minimum: float | None = None, maximum: float | None = None) -> Any:
+        """A plain number (or a percentage string such as ``"80 %"``)."""
+        value = self.raw(key, default, "a number")
+        if key not in self.data:
+            return value
+        x = parse_ratio(value, self.where(key))
+        self._check_range(key, x, value, positive, minimum, maximum, None)
+        return x
+
+    def integer(self, key: str, default: Any = REQUIRED, *, minimum: int = 1,
+                maximum: int | None = None) -> Any:
+        """A whole number within limits."""
+        value = self.raw(key, default, "a whole number")
+        if key not in self.data:
+            return value
+        if isinstance(value, bool) or not isinstance(value, int):
+            raise InputError(f"expected a whole number, got {value!r}", self.where(key))
+        if value < minimum or (maximum is not None and value > maximum):
+            limit = f"at least {minimum}" + (f" and at most {maximum}" if maximum else "")
+            raise InputError(f"must be {limit}, got {value}", self.where(key))
+        return value
+
+    def text(self, key: str, default: Any = REQUIRED,
+             choices: Iterable[str] | None = None) -> Any:
+        """A string, optionally one of ``choices``."""
+        expected = "text" if choices is None else "one of " + ", ".join(
+            f'"{c}"' for c in choices)
+        value = self.raw(key, default, expected)
+        if key not in self.data:
+            return value
+        if not isinstance(value, str):
+            raise InputError(f"expected {expected}, got {_kind_of(value)} {value!r}",
+                             self.where(key))
+        if choices is not None and value not in choices:
+            raise InputError(f'"{value}" is not known{did_you_mean(value, choices)}',
+                             self.where(key))
+        return value
+
+    def flag(self, key: str, default: bool = False) -> bool:
+        """A true/false value."""
+        value = self.raw(key, default, "true or false")
+        if not isinstance(value, bool):
+            raise InputError(f"expected true or false, got {value!r}", self.where(key))
+        return value
+
+    def table(self, key: str, allowed: Iterable[str], required: bool = False) -> Table | None:
+        """A sub-table, or None when absent and not required."""
+        if key not in self.data:
+            if required:
+                raise InputError(f'missing required table "{key}"', self.where(key))
+            return None
+        return Table(self.data[key], self.where(key), allowed)
+
+    def array(self, key: str, required: bool = False) -> list[Any]:
+        """An array (a single table is taken as an array of one)."""
+        if key not in self.data:
+            if required:
+                raise InputError(f'missing required key "{key}"', self.where(key))
+            return []
+        value = self.data[key]
+        if isinstance(value, dict):
+            return [value]
+        if not isinstance(value, list):
+            raise InputError(f"expected an array, got {_kind_of(value)}", self.where(key))
+        return value
+
+    def quantities(self, key: str, dimension: str, count: int,
+                   default: Any = REQUIRED) -> Any:
+        """A fixed-length array of quantities, e.g. a plan position ``["0 ft", "3 ft"]``."""
+        value = self.raw(key, default, f"an array of {count} quantities")
+        if key not in self.data:
+            return value
+        if not isinstance(value, list) or len(value) != count:
+            dim = DIMENSIONS[dimension]
+            sample = ", ".join([f'"{dim.example}"'] * count)
+            raise InputError(f"expected an array of {count} values like [{sample}], "
+                             f"got {value!r}", self.where(key))
+        return tuple(parse_quantity(v, dimension, f"{self.where(key)}[{i + 1}]")
+                     for i, v in enumerate(value))
+
+    def _check_range(self, key: str, si: float, written: Any, positive: bool,
+                     minimum: float | None, maximum: float | None,
+                     dimension: str | None) -> None:
+        shown = f"{written!r}" if isinstance(written, str) else f"{written}"
+        if positive and not si > 0:
+            raise InputError(f"must be greater than zero, got {shown}", self.where(key))
+        if minimum is not None and si < minimum:
+            raise InputError(f"must be at least {_limit(minimum, dimension)}, got {shown}",
+                             self.where(key))
+        if maximum is not None and si > maximum:
+            raise InputError(f"must be at most {_limit(maximum, dimension)}, got {shown}",
+                             self.where(key))
+
+
+def _limit(value: float, dimension: str | None) -> str:
+    if dimension == "angle":
+        return f"{math.degrees(value):g} deg"
+    if dimension is None:
+        return f"{value:g}"
+    return f"{value:g} {DIMENSIONS[dimension].si_unit}"

@@ -1,0 +1,8 @@
+"""spanstay: nonlinear finite-element checks of cable rides and cable-anchored posts.
+
+The installed package ``spanstay`` holds the engine as ``spanstay.fem`` (the
+repository's fem/ folder) and the trade layer as ``spanstay.models`` (models/),
+so a user's own ``models.py`` or ``fem.py`` never shadows them. The public
+Python API is :mod:`spanstay.models.api`, re-exported here.
+"""
+from __future__ import annotations
