@@ -23,6 +23,7 @@ ROOT = Path(__file__).resolve().parents[1]
 def bench(path: Path, stations: int) -> None:
     import spanstay.models.analysis.run as run
     import spanstay.models.analysis.slack_budget as slack
+    import spanstay.models.api as api
     from spanstay.models.outputs.results_folder import write_results
     from spanstay.models.scenario.read import load_scenario
 
@@ -38,15 +39,16 @@ def bench(path: Path, stations: int) -> None:
                 phases[name] = phases.get(name, 0.0) + time.perf_counter() - t0
         return wrapper
 
-    original = (run.install, run.run_pass, slack.slack_budget, run._checks)
-    run.install, run.run_pass = timed("install", run.install), timed("passes", run.run_pass)
-    slack.slack_budget, run._checks = timed("slack budget", slack.slack_budget), timed("checks", run._checks)
+    original = (run.install, run.run_case, slack.slack_budget, api.run_checks)
+    run.install, run.run_case = timed("install", run.install), timed("passes", run.run_case)
+    slack.slack_budget = timed("slack budget", slack.slack_budget)
+    api.run_checks = timed("checks", api.run_checks)
     try:
         t0 = time.perf_counter()
-        result = run.analyse(scenario, stations=stations)
+        result = api.analyse(scenario, stations=stations)
         total = time.perf_counter() - t0
     finally:
-        run.install, run.run_pass, slack.slack_budget, run._checks = original
+        run.install, run.run_case, slack.slack_budget, api.run_checks = original
     iterations = [sum(s.iterations) for p in result.passes.values() for s in p.states]
     with tempfile.TemporaryDirectory() as tmp:
         t0 = time.perf_counter()

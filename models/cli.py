@@ -91,7 +91,8 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
     from spanstay.fem.errors import FemError
     from spanstay.models.common.errors import InputError
     from spanstay.models.outputs.results_folder import write_results
-    from spanstay.models.analysis.run import analyse, pass_count
+    from spanstay.models.analysis.run import pass_count
+    from spanstay.models.api import analyse
     from spanstay.models.scenario.read import load_scenario
     from spanstay.models.outputs.terminal import summary_lines
 

@@ -6,3 +6,9 @@ so a user's own ``models.py`` or ``fem.py`` never shadows them. The public
 Python API is :mod:`spanstay.models.api`, re-exported here.
 """
 from __future__ import annotations
+
+from spanstay.models.api import (FemError, InputError, LoadCase, RunResult, Scenario, analyse,
+                                 load, load_cases, results, write_results)
+
+__all__ = ["FemError", "InputError", "LoadCase", "RunResult", "Scenario", "analyse", "load",
+           "load_cases", "results", "write_results"]

@@ -21,8 +21,8 @@ import numpy as np
 
 from spanstay.fem import Model, SolverOptions, State, solve
 from spanstay.fem.errors import FemError
-from spanstay.models.parts.footing import (FootingCase, FootingResponse, PlacedFooting, build_case_model,
-                            footing_response)
+from spanstay.models.parts.footing import FootingResponse, PlacedFooting, footing_response
+from spanstay.models.parts.footing_case import FootingCase, build_case_model
 from spanstay.models.parts.py_curves import passive_coefficient
 
 CAPACITY_EXCEEDED = "capacity exceeded"

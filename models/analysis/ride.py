@@ -100,34 +100,7 @@ class RideResult:
     lifts_off: bool
 
 
-@dataclass(frozen=True)
-class Clearance:
-    """Clearance of the rider's feet over the ground.
-
-    Attributes
-    ----------
-    distance
-        Horizontal distance of every ride-profile point, m.
-    clearance
-        Feet-over-ground clearance at every ride-profile point, m (negative
-        means the feet are below ground).
-    minimum
-        Smallest clearance anywhere along the ride (between points included), m.
-    minimum_distance
-        Horizontal distance where the smallest clearance occurs, m.
-    feet_elevation, ground_elevation
-        Elevations of the feet and of the ground at that place, m.
-    """
-
-    distance: NDArray[np.float64]
-    clearance: NDArray[np.float64]
-    minimum: float
-    minimum_distance: float
-    feet_elevation: float
-    ground_elevation: float
-
-
-def _as_profile(
+def as_profile(
     distance: ArrayLike, elevation: ArrayLike, name: str
 ) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
     d = np.asarray(distance, dtype=float).ravel()
@@ -149,7 +122,7 @@ def _as_profile(
     return d, z
 
 
-def _check_nonnegative(value: float, name: str, unit: str) -> float:
+def check_nonnegative(value: float, name: str, unit: str) -> float:
     v = float(value)
     if not np.isfinite(v) or v < 0.0:
         raise InputError(f"must be a finite value >= 0 {unit}, got {value!r}", where=name)
@@ -256,15 +229,15 @@ def ride_speed(
     InputError
         On a malformed profile or a negative or non-finite parameter.
     """
-    d, z = _as_profile(distance, elevation, "ride profile")
+    d, z = as_profile(distance, elevation, "ride profile")
     m = float(mass)
     if not np.isfinite(m) or m <= 0.0:
         raise InputError(f"must be a finite mass > 0 kg, got {mass!r}", where="rider mass")
-    crr = _check_nonnegative(rolling_resistance, "rolling resistance", "")
-    cda = _check_nonnegative(drag_area, "drag area", "m^2")
-    v_first = _check_nonnegative(start_speed, "start speed", "m/s")
-    rho = _check_nonnegative(air_density, "air density", "kg/m^3")
-    g = _check_nonnegative(gravity, "gravity", "m/s^2")
+    crr = check_nonnegative(rolling_resistance, "rolling resistance", "")
+    cda = check_nonnegative(drag_area, "drag area", "m^2")
+    v_first = check_nonnegative(start_speed, "start speed", "m/s")
+    rho = check_nonnegative(air_density, "air density", "kg/m^3")
+    g = check_nonnegative(gravity, "gravity", "m/s^2")
 
     dd, dz = np.diff(d), np.diff(z)
     if distance_kind == "horizontal":
@@ -381,64 +354,4 @@ def ride_speed(
         min_normal_ratio=float(normal[k_n]),
         min_normal_distance=float(horizontal[k_n]),
         lifts_off=bool(normal[k_n] < 0.0),
-    )
-
-
-def feet_clearance(
-    distance: ArrayLike,
-    elevation: ArrayLike,
-    hang: float,
-    ground_distance: ArrayLike,
-    ground_elevation: ArrayLike,
-) -> Clearance:
-    """Smallest clearance of the rider's feet over the ground along the ride.
-
-    The feet hang a fixed vertical distance below the attachment point; feet
-    and ground are both piecewise linear in horizontal distance, so the
-    smallest clearance is found exactly at a break point of either.
-
-    Parameters
-    ----------
-    distance, elevation
-        Ride profile: horizontal distance along the line and elevation of the
-        attachment point, m.
-    hang
-        Vertical distance from the cable (attachment point) to the feet, m.
-    ground_distance, ground_elevation
-        Ground profile under the line, m; must cover the whole ride.
-
-    Returns
-    -------
-    Clearance
-        Clearance at every profile point and the smallest clearance, with where.
-
-    Raises
-    ------
-    InputError
-        On malformed profiles, a negative hang, or ground that does not cover
-        the ride.
-    """
-    d, z = _as_profile(distance, elevation, "ride profile")
-    gd, gz = _as_profile(ground_distance, ground_elevation, "ground")
-    h = _check_nonnegative(hang, "hang", "m")
-    tol = 1e-9 * max(1.0, abs(d[0]), abs(d[-1]))
-    if gd[0] > d[0] + tol or gd[-1] < d[-1] - tol:
-        raise InputError(
-            f"ground profile covers {gd[0]:g} m to {gd[-1]:g} m but the ride runs "
-            f"from {d[0]:g} m to {d[-1]:g} m; expected ground under the whole ride",
-            where="ground",
-        )
-    inside = gd[(gd > d[0]) & (gd < d[-1])]
-    where = np.union1d(d, inside)
-    feet = np.interp(where, d, z) - h
-    ground = np.interp(where, gd, gz)
-    gap = feet - ground
-    k = int(np.argmin(gap))
-    return Clearance(
-        distance=d,
-        clearance=z - h - np.interp(d, gd, gz),
-        minimum=float(gap[k]),
-        minimum_distance=float(where[k]),
-        feet_elevation=float(feet[k]),
-        ground_elevation=float(ground[k]),
     )

@@ -29,6 +29,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from spanstay.fem import Model, State
+from spanstay.models.analysis.anchor_shares import reaction_shares
 from spanstay.models.parts.braces import BuiltHBrace, BuiltKicker, BuiltMember, member_axial_force
 from spanstay.models.parts.guys import BuiltGuy, guy_state
 from spanstay.models.catalogs.ibc_embedment import PSF, ibc_class_key
@@ -275,46 +276,6 @@ def tree_checks(anchor: str, built, model: Model, state: State) -> list[AnchorCh
                                note="green modulus of rupture is a mean clear-wood strength, "
                                     "not a design value; decay and defects lower it"))
     return out
-
-
-def _nodes_of(model: Model, names) -> set[int]:
-    out: set[int] = set()
-    for name in names:
-        out |= set(np.unique(model.group(name).conn).tolist())
-    return out
-
-
-def reaction_shares(model: Model, built, state: State) -> dict[str, np.ndarray]:
-    """Ground reactions (N) on the anchor's guys, brace and post footing.
-
-    The guy share is the reaction at the guys' ground anchors, the brace share
-    that at the kicker block or under the H-brace's second post, the footing
-    share the rest (the post's own footing or base).
-    """
-    every = set()
-    for names in built.groups.values():
-        every |= _nodes_of(model, names)
-    every.add(built.grade_node)
-    guys = set()
-    for g in built.guys:
-        guys |= {g.ground_node} | ({g.support_node} if g.support_node is not None else set())
-    brace: set[int] = set()
-    b = built.brace
-    if isinstance(b, BuiltKicker):
-        brace = {b.block_node}
-    elif isinstance(b, BuiltHBrace):
-        second = b.second
-        for names in second.groups.values():
-            brace |= _nodes_of(model, names)
-        brace.add(second.grade_node)
-        every |= brace
-    footing = every - guys - brace
-    r = state.reactions[:, :3]
-
-    def total(nodes):
-        return r[sorted(nodes)].sum(axis=0) if nodes else np.zeros(3)
-
-    return {"guys": total(guys), "brace": total(brace), "footing": total(footing)}
 
 
 def check_anchor(model: Model, built, state: State,

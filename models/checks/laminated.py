@@ -11,9 +11,14 @@ from dataclasses import dataclass
 
 import numpy as np
 
+import math
+
+from spanstay.fem import State
 from spanstay.models.catalogs.fasteners import lateral_factors
+from spanstay.models.checks.check import RIDER_DURATION, Check
+from spanstay.models.checks.posts import adjusted_outdoor, combined_ratio, section_ends
 from spanstay.models.parts.laminated import LaminatedPost
-from spanstay.models.parts.laminated_results import LaminatedResults
+from spanstay.models.parts.laminated_results import LaminatedResults, laminated_results
 from spanstay.models.catalogs.nds import (Factor, adjusted_values, beam_stability_factor, bending_compression,
                         bending_effective_length, column_buckling_stress,
                         column_stability_factor)
@@ -186,3 +191,67 @@ def _stability(post, res, sig_n, fb_edge, fb_flat, edge_adj, le, le_note) -> Lam
         f"{le_note}; fc = {fc.ravel()[k]:.4g} Pa, fb along joints {f_side.ravel()[k]:.4g} Pa, "
         f"fb across joints {f_stack.ravel()[k]:.4g} Pa (Fb without Cfu); "
         "second-order moments amplified again (conservative)")
+
+
+def embedded_laminated_checks(system, anchor, state: State, duration: str,
+                        cache: dict) -> list[Check]:
+    """Embedded length of a laminated post set straight in the soil.
+
+    The model carries it as one solid section; the check takes the plies as
+    unconnected below grade (each ply bends about its own axis across the
+    stack), the safe side of the composite action the fasteners give.
+    """
+    lam = anchor.laminated
+    design = lam.design
+    spec = anchor.spec
+    ply = design.plies[0]
+    n, t, w = design.n, ply.thickness, ply.width
+    stack_along = design.stack_angle_deg == 0
+    forces, h = section_ends(system.model, anchor.groups["footing_member"][0], state, spec.grade)
+    A = n * t * w
+    s_stack = n * w * t**2 / 6.0   # bending across the stack, no composite action
+    s_side = n * t * w**2 / 6.0    # plies side by side, each about its strong axis
+    # the embedded member's local z lies along the pull (depth "along" of the outline)
+    s_y, s_z = (s_stack, s_side) if stack_along else (s_side, s_stack)
+    fb_y, fb_z = np.abs(forces[..., 4]) / s_y, np.abs(forces[..., 5]) / s_z
+    fb_flat, fb_edge = (fb_y, fb_z) if stack_along else (fb_z, fb_y)
+    edge = adjusted_outdoor(ply.values, ply.size, duration)
+    flat = adjusted_outdoor(ply.values, ply.size, duration, flatwise=True)
+    val = combined_ratio(forces[..., 0] / A, fb_edge, fb_flat, edge["Fc_star"], edge["Fb"], flat["Fb"],
+                    edge["Ft"], edge["Fb"], math.inf, math.inf, math.inf).ravel()
+    k = int(np.argmax(val))
+    return [Check(f"anchor.{spec.name}.post.embedded.stress", "post", spec.name,
+                  "laminated post below grade: combined stress, plies taken as unconnected",
+                  float(val[k]), 1.0, "ratio",
+                  source=f"NDS 2018 3.9.1, 3.9.2 (no buckling in the soil); load duration "
+                         f"'{duration}'",
+                  note=f"at {h.ravel()[k]:+.2f} m from grade; the model has the embedded "
+                       "length as one solid section; this check ignores the fasteners "
+                       "(conservative)")]
+
+
+def laminated_post_checks(anchor, state: State, duration: str = RIDER_DURATION) -> list[Check]:
+    """Ply stresses, shear, built-up stability and fastener forces of a laminated post."""
+    lam = anchor.laminated
+    name = anchor.spec.name
+    res = laminated_results(lam, state)
+    out = []
+    for c in check_laminated(lam, res, duration=duration, wet=True):
+        part = c.part.replace(" ", "")
+        if c.part.startswith("fasteners"):
+            cid = f"anchor.{name}.{part.replace(',', '.')}.force"
+            part_name, kind = "fasteners", "force"
+        elif c.part == "post":
+            cid, part_name, kind = f"anchor.{name}.post.stability", "post", "ratio"
+        elif c.check == "shear":
+            cid, part_name, kind = f"anchor.{name}.post.{part}.shear", "post", "stress"
+        else:
+            cid, part_name, kind = f"anchor.{name}.post.{part}.stress", "post", "ratio"
+        factor_note = "; ".join(f"{f['symbol']} {f['value']:.3g}" for f in c.factors
+                                if f["value"] != 1.0)
+        out.append(Check(cid, part_name, name, f"laminated post, {c.part}: {c.check}",
+                         c.demand, c.capacity, kind,
+                         source=f"{c.clause}; load duration '{duration}'",
+                         note=f"at {c.height:.2f} m above grade; {c.note}; "
+                              f"{factor_note}".strip("; ")))
+    return out

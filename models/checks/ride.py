@@ -5,6 +5,12 @@ import math
 
 from spanstay.models.checks.structural import Check
 
+#: smallest clearance of the rider's feet over the ground: a judgement of ours
+MIN_CLEARANCE = 0.15
+#: largest arrival speed at the far end: a judgement of ours for a line without a
+#: braking system; set your own with the brake you use
+MAX_ARRIVAL_SPEED = 5.0
+
 
 def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
     """Findings about the ride, each as a check with demand, capacity and utilization."""

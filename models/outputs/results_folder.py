@@ -108,7 +108,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
     from importlib.metadata import PackageNotFoundError, version
 
     from spanstay.models.analysis.installed import end_tensions, measured_sag
-    from spanstay.models.analysis.run import anchor_shares
+    from spanstay.models.analysis.anchor_shares import anchor_shares
 
     try:
         ver = version("spanstay")

@@ -13,7 +13,8 @@ from typing import Literal
 import numpy as np
 from numpy.typing import ArrayLike
 
-from spanstay.models.analysis.ride import Clearance, RideResult
+from spanstay.models.analysis.clearance import Clearance
+from spanstay.models.analysis.ride import RideResult
 
 Units = Literal["si", "us"]
 

@@ -69,7 +69,7 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         lines.append(f"  slack budget of the loaded sag {show(sb['loaded_sag'], 'length', units)}:")
         for name, v in sb["shares"].items():
             lines.append(f"    {name:<46} {_value(v, 'length', units)}")
-    from spanstay.models.analysis.run import anchor_shares
+    from spanstay.models.analysis.anchor_shares import anchor_shares
 
     for name, share in anchor_shares(result).items():
         parts = ", ".join(f"{part} {100 * f:.0f} %" for part, f in share["fraction"].items() if f > 0.005)

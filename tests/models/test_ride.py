@@ -6,7 +6,8 @@ import pytest
 from scipy.integrate import quad
 
 from spanstay.models.common.errors import InputError
-from spanstay.models.analysis.ride import feet_clearance, ride_speed
+from spanstay.models.analysis.clearance import feet_clearance
+from spanstay.models.analysis.ride import ride_speed
 
 G = 9.80665
 X = np.linspace(0.0, 60.0, 61)

@@ -7,7 +7,8 @@ import numpy as np
 import pytest
 from matplotlib.image import imread
 
-from spanstay.models.analysis.ride import feet_clearance, ride_speed
+from spanstay.models.analysis.clearance import feet_clearance
+from spanstay.models.analysis.ride import ride_speed
 from spanstay.models.outputs.ride_plots import plot_ride_profile, plot_speed, plot_tension
 
 X = np.linspace(0.0, 80.0, 81)

@@ -5,7 +5,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from spanstay.models.analysis.run import analyse
+from spanstay.models.api import analyse
 from spanstay.models.scenario.read import load_scenario
 
 LAYOUT = Path(__file__).resolve().parents[2] / "models" / "scenario" / "layouts" / "two-posts.toml"

@@ -5,7 +5,7 @@ import numpy as np
 import pytest
 
 from spanstay.models.checks.structural import structural_checks
-from spanstay.models.analysis.run import analyse
+from spanstay.models.api import analyse
 from spanstay.models.scenario.read import read_scenario
 
 ANGLE = math.radians(35.0)  # plan angle of the second line from the first

@@ -3,7 +3,8 @@ import pytest
 
 from spanstay.fem import BeamSection
 from spanstay.models.common.errors import InputError
-from spanstay.models.parts.footing import Footing, FootingCase, build_case_model, concrete_pier_section, ibc_check
+from spanstay.models.parts.footing import Footing, concrete_pier_section, ibc_check
+from spanstay.models.parts.footing_case import FootingCase, build_case_model
 from spanstay.models.catalogs.soil import SoilLayer, SoilProfile, preset_layer
 
 POST = BeamSection.rectangle(11e9, 11e9 / 16, 0.14, 0.14)

@@ -21,7 +21,8 @@ def test_pushover_in_a_larger_model_along_y_matches_the_case_along_x():
     # Isotropic soil in plan: pushing the pier's post top along y in a model with a second
     # footing elsewhere gives the same curve as the footing on its own along x.
     from spanstay.fem import BeamSection, Model
-    from spanstay.models.parts.footing import Footing, FootingCase, add_footing
+    from spanstay.models.parts.footing import Footing, add_footing
+    from spanstay.models.parts.footing_case import FootingCase
     from spanstay.models.analysis.capacity import pushover, pushover_model
     from spanstay.models.catalogs.soil import SoilProfile, preset_layer
 

@@ -17,7 +17,8 @@ import pytest
 from scipy.optimize import brentq
 
 from spanstay.fem import BeamSection
-from spanstay.models.parts.footing import Footing, FootingCase
+from spanstay.models.parts.footing import Footing
+from spanstay.models.parts.footing_case import FootingCase
 from spanstay.models.analysis.capacity import broms_sand_short_free_head, pushover, rigid_limit_load
 from spanstay.models.catalogs.soil import SoilLayer, SoilProfile
 

@@ -9,8 +9,8 @@ import numpy as np
 import pytest
 
 from spanstay.fem import BeamSection, Model, solve
-from spanstay.models.parts.footing import (Footing, FootingCase, add_footing, concrete_pier_section,
-                            footing_response)
+from spanstay.models.parts.footing import Footing, add_footing, concrete_pier_section, footing_response
+from spanstay.models.parts.footing_case import FootingCase
 from spanstay.models.analysis.capacity import CAPACITY_EXCEEDED, analyse_footing
 from spanstay.models.catalogs.soil import SoilProfile, preset_layer
 

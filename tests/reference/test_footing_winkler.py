@@ -15,7 +15,8 @@ import pytest
 from scipy.integrate import solve_bvp
 
 from spanstay.fem import BeamSection, solve
-from spanstay.models.parts.footing import Footing, FootingCase, build_case_model, footing_response
+from spanstay.models.parts.footing import Footing, footing_response
+from spanstay.models.parts.footing_case import FootingCase, build_case_model
 from spanstay.models.catalogs.soil import SoilLayer, SoilProfile
 
 EI = 2.0e6  # N m^2

@@ -187,7 +187,7 @@ def test_guyed_anchor_shares_an_angled_pull_between_guys_and_footing():
     # guys' share plus the footing's share is the whole pull.
     from dataclasses import replace
 
-    from spanstay.models.checks.anchors import reaction_shares
+    from spanstay.models.analysis.anchor_shares import reaction_shares
     from spanstay.models.parts.anchor import add_anchor
     from spanstay.models.scenario.spec import FootingSpec
     from tests.reference.test_brace_statics import GROUND, anchor

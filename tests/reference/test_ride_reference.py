@@ -8,7 +8,8 @@ import numpy as np
 import pytest
 from scipy.integrate import solve_ivp
 
-from spanstay.models.analysis.ride import feet_clearance, ride_speed
+from spanstay.models.analysis.clearance import feet_clearance
+from spanstay.models.analysis.ride import ride_speed
 
 G = 9.80665
 RHO = 1.225

@@ -1,0 +1,132 @@
+"""Load cases as values: what each pass of a run loads, at what temperature, on which
+structure. :func:`load_cases` is the one place the list a scenario needs is built.
+
+A pass is described by an immutable :class:`LoadCase` and run by
+:func:`spanstay.models.analysis.run_case.run_case`, which leaves the shared structure
+unchanged, so cases can be added as values and run side by side.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from spanstay.models.scenario.spec import Scenario
+
+#: a hot pass is run when the hottest temperature of use is this far above installation (K)
+HOT_MARGIN = 0.05
+
+#: what a case is for: "ride" (speeds, slack budget, the heavy rider's states),
+#: "strength" (structural checks), "clearance" (the feet over the ground when hot)
+PURPOSES = ("ride", "strength", "clearance")
+#: fastener slip of laminated posts: K_ser for the ride, K_u = 2/3 K_ser for strength
+SLIP_STATES = ("service", "ultimate")
+
+
+@dataclass(frozen=True)
+class PointLoad:
+    """An extra load on an anchor at a height above its grade (N, global x, y, z)."""
+
+    anchor: str
+    height: float
+    force: tuple[float, float, float]
+
+
+@dataclass(frozen=True)
+class LoadCase:
+    """One pass of the rider along one line.
+
+    Attributes
+    ----------
+    name
+        Pass label in every output ("ride_light", "design", "design-<line>", ...).
+    purpose
+        One of :data:`PURPOSES`.
+    line
+        Name of the line the rider loads.
+    rider_weight
+        Rider weight before any factor (N).
+    rider_factor
+        Dynamic factor on the rider weight (1 for a static pass).
+    temperature
+        Cable temperature (K); the cut lengths are those of the installed state.
+    slip
+        One of :data:`SLIP_STATES`.
+    stations
+        Number of rider stations between the ride's start and stop offsets.
+    keep_states
+        Keep every station's full state (for checks, VTK output and plots).
+    extra_loads
+        Loads added to the rider at every station.
+    """
+
+    name: str
+    purpose: str
+    line: str
+    rider_weight: float
+    rider_factor: float
+    temperature: float
+    slip: str
+    stations: int
+    keep_states: bool = False
+    extra_loads: tuple[PointLoad, ...] = ()
+
+    def __post_init__(self) -> None:
+        if self.purpose not in PURPOSES:
+            raise ValueError(f"load case {self.name}: purpose {self.purpose!r} not in {PURPOSES}")
+        if self.slip not in SLIP_STATES:
+            raise ValueError(f"load case {self.name}: slip {self.slip!r} not in {SLIP_STATES}")
+
+    @property
+    def rider_load(self) -> float:
+        """The vertical load the rider puts on the line (N)."""
+        return self.rider_weight * self.rider_factor
+
+
+def temperature_range(scenario: Scenario) -> tuple[float, float]:
+    """(coldest, hottest) temperature of use, the installation temperature included (K)."""
+    settings = scenario.settings
+    temps = list(settings.use_temperatures) + [settings.install_temperature]
+    return min(temps), max(temps)
+
+
+def other_lines(scenario: Scenario) -> list[str]:
+    """Names of the lines other than the one the rider's table names."""
+    return [line.name for line in scenario.lines if line.name != scenario.rider.line]
+
+
+def needs_ultimate_slip(scenario: Scenario) -> bool:
+    """True when some post is laminated (its strength passes use K_u)."""
+    return any(a.post is not None and a.post.kind == "laminated" for a in scenario.anchors)
+
+
+def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCase, ...]:
+    """Every pass a run of ``scenario`` makes, in order.
+
+    - ride_light, ride_heavy: the lightest and heaviest rider, static, at the
+      installation temperature, fastener slip K_ser (the ride and its speeds);
+    - hot: the heaviest rider, static, at the hottest temperature of use (feet
+      clearance), when that is above installation;
+    - design: the heaviest rider times the dynamic factor at the coldest
+      temperature (the tightest line), laminated posts with K_u (EC5 2.2.2);
+    - design-<line>: the same on every other line, so the anchors it shares are
+      checked under its pull too.
+    """
+    rider = scenario.rider
+    if rider is None:
+        raise ValueError("a scenario without a rider has no load cases")
+    count = int(stations or rider.stations)
+    t_inst = scenario.settings.install_temperature
+    t_cold, t_hot = temperature_range(scenario)
+    design_slip = "ultimate" if needs_ultimate_slip(scenario) else "service"
+    cases = [
+        LoadCase("ride_light", "ride", rider.line, rider.lightest, 1.0, t_inst, "service", count),
+        LoadCase("ride_heavy", "ride", rider.line, rider.heaviest, 1.0, t_inst, "service", count,
+                 keep_states=True),
+    ]
+    if t_hot > t_inst + HOT_MARGIN:
+        cases.append(LoadCase("hot", "clearance", rider.line, rider.heaviest, 1.0, t_hot,
+                              "service", count))
+    for name in [rider.line] + other_lines(scenario):
+        label = "design" if name == rider.line else f"design-{name}"
+        cases.append(LoadCase(label, "strength", name, rider.heaviest, rider.dynamic_factor,
+                              t_cold, design_slip, count, keep_states=True))
+    return tuple(cases)
