@@ -22,7 +22,7 @@ from spanstay.fem.errors import FemError
 from spanstay.models.analysis.load_cases import LoadCase, load_cases
 from spanstay.models.analysis.run import RunResult
 from spanstay.models.analysis.run import analyse as _analyse_passes
-from spanstay.models.checks.collect import run_checks
+from spanstay.models.checks.collect import run_verdict
 from spanstay.models.common.errors import InputError
 from spanstay.models.scenario.read import load_scenario, read_scenario
 from spanstay.models.scenario.spec import Scenario
@@ -59,10 +59,22 @@ def analyse(scenario: Scenario | str | Path | dict[str, Any], stations: int | No
     """
     if not isinstance(scenario, Scenario):
         scenario = load(scenario)
+    refuse_open_placeholders(scenario)
     result = _analyse_passes(scenario, stations=stations, progress=progress,
                              slack_budget=slack_budget)
-    result.checks = run_checks(result)
+    result.verdict = run_verdict(result)
+    result.checks = result.verdict.checks
     return result
+
+
+def refuse_open_placeholders(scenario: Scenario) -> None:
+    """InputError for the first placeholder value the user has neither replaced nor accepted."""
+    for where, accepted in scenario.placeholders:
+        if not accepted:
+            raise InputError("this value is a placeholder from the starter, not a property of "
+                             "your site: replace it with your own (assessed) value, or write "
+                             "accepted = true in its table to run with it (the checks that use "
+                             "it are then listed as not checked, never as a pass)", where)
 
 
 def results(result: RunResult, units: str = "si") -> dict[str, Any]:

@@ -73,6 +73,10 @@ def validate(file: str, units: str | None) -> None:
     except (InputError, FemError) as exc:
         _fail(exc)
     click.echo(summary_text(scenario, units or scenario.settings.units))
+    for where, accepted in scenario.placeholders:
+        click.echo(f"note: {where} is a placeholder"
+                   + (" (accepted: checks that use it are listed as not checked)" if accepted
+                      else "; replace it with your own value before `spanstay run`"))
     click.echo("valid")
 
 
@@ -85,7 +89,11 @@ def validate(file: str, units: str | None) -> None:
 @click.option("--stations", type=click.IntRange(2, 2000), default=None,
               help="Rider stations along the line (default: the scenario's).")
 def run(file: str, out_dir: str | None, units: str | None, stations: int | None) -> None:
-    """Hang the line, move the riders along it, and check every part."""
+    """Hang the line, move the riders along it, and check every part.
+
+    Exit status: 0 every check passes (the analysis complete); 3 some check fails;
+    4 the analysis is incomplete (a pass stopped early); 2 bad input or usage.
+    """
     from pathlib import Path
 
     from spanstay.fem.errors import FemError
@@ -116,6 +124,7 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
                    "Please report it with the scenario file.", err=True)
         sys.exit(1)
     click.echo("\n".join(summary_lines(result, written, units)))
+    sys.exit(result.verdict.exit_code)
 
 
 @main.command("view")

@@ -35,6 +35,7 @@ class RunResult:
     clearance: Clearance | None = None
     slack: object | None = None
     checks: list = field(default_factory=list)
+    verdict: object | None = None           # spanstay.models.checks.verdict.Verdict
     design_system: System | None = None     # laminated posts with K_u (else the same system)
     design_installed: State | None = None
     cases: tuple[LoadCase, ...] = ()
@@ -83,7 +84,7 @@ def analyse(scenario: Scenario, stations: int | None = None,
                        coords[rider.line], passes, design_system=strength.system,
                        design_installed=strength.installed, cases=cases)
     _ride(result)
-    if slack_budget:
+    if slack_budget and passes["ride_heavy"].complete:
         from spanstay.models.analysis.slack_budget import slack_budget as budget
         result.slack = budget(result)
     return result
@@ -105,9 +106,10 @@ def _ride(result: RunResult) -> None:
     ground = result.scenario.ground
     gd = np.array([g[0] for g in ground.profile])
     gz = np.array([g[1] for g in ground.profile])
+    # ride results only from complete passes: a partial profile gives a wrong speed
     for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
         p = result.passes[label]
-        if len(p.stations) < 2:
+        if not p.complete or len(p.stations) < 2:
             continue
         along, z = _profile(p)
         mass = p.weight / STANDARD_GRAVITY
@@ -117,8 +119,11 @@ def _ride(result: RunResult) -> None:
     worst = None
     for label in ("ride_heavy", "hot"):
         p = result.passes.get(label)
-        if p is None or len(p.stations) < 2:
+        if p is None:
             continue
+        if not p.complete or len(p.stations) < 2:
+            result.clearance = None
+            return
         along, z = _profile(p)
         c = feet_clearance(along, z, rider.hang_distance, gd, gz)
         if worst is None or c.minimum < worst.minimum:

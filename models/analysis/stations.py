@@ -46,6 +46,12 @@ class Pass:
     states: list[State] = field(default_factory=list)
     failed_at: float | None = None
     failure: str = ""
+    failed_groups: tuple[str, ...] = ()   # element groups around the largest imbalance
+
+    @property
+    def complete(self) -> bool:
+        """True when every station of the pass found equilibrium."""
+        return self.failed_at is None
 
 
 def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float) -> State:
@@ -144,6 +150,9 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
         except FemError as exc:
             result.failed_at = float(s)
             result.failure = str(exc)
+            sites = getattr(exc, "sites", None) or []
+            result.failed_groups = tuple(dict.fromkeys(g for site in sites[:3]
+                                                       for g in site.elements))
             break
         first = False
         result.stations.append(record(system, state, line))

@@ -1,9 +1,12 @@
-"""Checks of the ride itself: arrival, arrival speed, feet clearance, equilibrium."""
+"""Checks of the ride itself: the lightest rider arrives, the arrival speed, the feet
+clear the ground. Each is made only from complete passes; what could not be computed
+is listed as not checked, with the reason."""
 from __future__ import annotations
 
 import math
 
-from spanstay.models.checks.structural import Check
+from spanstay.models.checks.check import Check
+from spanstay.models.checks.verdict import NotChecked
 
 #: smallest clearance of the rider's feet over the ground: a judgement of ours
 MIN_CLEARANCE = 0.15
@@ -12,52 +15,75 @@ MIN_CLEARANCE = 0.15
 MAX_ARRIVAL_SPEED = 5.0
 
 
-def ride_checks(result, min_clearance: float, max_arrival_speed: float) -> list:
-    """Findings about the ride, each as a check with demand, capacity and utilization."""
-    out = []
-    heavy = result.passes["ride_heavy"]
-    for label, p in result.passes.items():
-        if p.failed_at is not None:
-            out.append(Check(
-                id=f"structure.equilibrium.{label}", part="structure", where=label,
-                description=f"equilibrium with the rider ({label}); capacity exceeded",
-                demand=p.failed_at, capacity=p.stations[-1].s if p.stations else 0.0,
-                kind="length", utilization=math.inf, passed=False,
-                governing={"pass": label, "rider_weight": p.weight, "station": len(p.stations),
-                           "along": p.stations[-1].along if p.stations else 0.0},
-                source="finite-element equilibrium",
-                note=f"no equilibrium {p.failed_at:.2f} m along the cable: {p.failure[:300]}"))
+def _stopped(result, name: str) -> str | None:
+    """Why pass ``name`` gives no ride result, or None when it is complete."""
+    p = result.passes.get(name)
+    if p is None:
+        return None
+    if not p.complete:
+        return f"not computed, because pass '{name}' stopped early (no equilibrium)"
+    if len(p.stations) < 2:
+        return f"not computed, because pass '{name}' has fewer than two stations"
+    return None
+
+
+def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
+                max_arrival_speed: float = MAX_ARRIVAL_SPEED
+                ) -> tuple[list[Check], list[NotChecked]]:
+    """The ride checks that could be made, and the ride items that could not."""
+    out: list[Check] = []
+    missing: list[NotChecked] = []
+    line = result.scenario.rider.line
     light = result.rides.get("lightest")
-    if light is not None:
+    why_light, why_heavy = _stopped(result, "ride_light"), _stopped(result, "ride_heavy")
+    if light is not None and why_light is None:
         end = float(light.distance[-1])
         reached = end if light.reaches_end else float(light.stop_distance)
         out.append(Check(
-            id="ride.lightest.arrives", part="ride", where=result.scenario.rider.line,
+            id="ride.lightest.arrives", part="ride", where=line,
             description="lightest rider reaches the far end", demand=end,
             capacity=max(reached, 1e-9), kind="length",
             governing={"pass": "ride_light", "rider_weight": result.passes["ride_light"].weight,
                        "station": None, "along": reached},
             source="energy: gravity, rolling resistance and air drag",
             note="" if light.reaches_end else f"stops {reached:.2f} m along the line"))
-    fast = [r for r in result.rides.values() if r.reaches_end]
-    if fast:
-        worst = max(fast, key=lambda r: r.arrival_speed)
-        out.append(Check(
-            id="ride.arrival_speed", part="ride", where=result.scenario.rider.line,
-            description="arrival speed at the far end", demand=float(worst.arrival_speed),
-            capacity=max_arrival_speed, kind="speed",
-            governing={"pass": "ride_heavy" if worst is result.rides.get("heaviest") else "ride_light",
-                       "rider_weight": None, "station": None, "along": float(worst.distance[-1])},
-            source="a judgement of ours for a line without a brake; set your own with the brake you use"))
-    if result.clearance is not None:
+    else:
+        missing.append(NotChecked("ride", "the lightest rider reaching the far end",
+                                  why_light or "not computed"))
+    heavy = result.rides.get("heaviest")
+    if heavy is not None and why_heavy is None and why_light is None:
+        fast = [r for r in (heavy, light) if r is not None and r.reaches_end]
+        if fast:
+            worst = max(fast, key=lambda r: r.arrival_speed)
+            out.append(Check(
+                id="ride.arrival_speed", part="ride", where=line,
+                description="arrival speed at the far end", demand=float(worst.arrival_speed),
+                capacity=max_arrival_speed, kind="speed",
+                governing={"pass": "ride_heavy" if worst is heavy else "ride_light",
+                           "rider_weight": None, "station": None,
+                           "along": float(worst.distance[-1])},
+                source="a judgement of ours for a line without a brake; set your own with the "
+                       "brake you use"))
+        else:
+            missing.append(NotChecked("ride", "the arrival speed",
+                                      "no rider reaches the far end (see the arrival check)"))
+    else:
+        missing.append(NotChecked("ride", "the arrival speed",
+                                  why_heavy or why_light or "not computed"))
+    why_hot = _stopped(result, "hot")
+    if result.clearance is not None and why_heavy is None and why_hot is None:
         c = result.clearance
         out.append(Check(
-            id="ride.clearance", part="ride", where=result.scenario.rider.line,
+            id="ride.clearance", part="ride", where=line,
             description="rider's feet clear the ground", demand=min_clearance,
             capacity=c.minimum, kind="length",
             utilization=min_clearance / c.minimum if c.minimum > 0 else math.inf,
-            governing={"pass": "ride_heavy/hot", "rider_weight": heavy.weight, "station": None,
-                       "along": c.minimum_distance},
-            source="a judgement of ours (smallest clearance of the feet, heaviest rider, hottest day)",
+            governing={"pass": "ride_heavy/hot", "rider_weight": result.passes["ride_heavy"].weight,
+                       "station": None, "along": c.minimum_distance},
+            source="a judgement of ours (smallest clearance of the feet, heaviest rider, hottest "
+                   "day)",
             note=f"smallest clearance {c.minimum:.2f} m"))
-    return out
+    else:
+        missing.append(NotChecked("ride", "the feet clearance over the ground",
+                                  why_heavy or why_hot or "not computed"))
+    return out, missing

@@ -28,7 +28,8 @@ from spanstay.models.checks.deflection import deflection_checks
 from spanstay.models.checks.laminated import embedded_laminated_checks, laminated_post_checks
 from spanstay.models.checks.line import line_checks
 from spanstay.models.checks.posts import solid_post_checks
-from spanstay.models.checks.soil import has_soil_limit, soil_checks
+from spanstay.models.checks.soil import has_soil_limit, soil_checks, soil_limit_ratio
+from spanstay.models.checks.verdict import NotChecked
 from spanstay.models.parts.system import System
 
 __all__ = ["Check", "state_checks", "structural_checks", "unchecked_parts"]
@@ -137,29 +138,53 @@ def anchor_part_checks(system: System, state: State, anchor, duration: str = RID
     return out
 
 
-def unchecked_parts(system: System) -> list[str]:
-    """Plain statements of what ``structural_checks`` does not check in this system."""
-    out = []
+def unchecked_parts(system: System, states=()) -> list[NotChecked]:
+    """What ``structural_checks`` does not check in this system, each with its reason.
+
+    ``states`` (the strength pass's station states) give the largest soil reaction
+    against its p-y limit, reported with the soil's capacity item.
+    """
+    out: list[NotChecked] = []
     for anchor in system.anchors.values():
         spec = anchor.spec
-        name = spec.name
+        name = f"anchor '{spec.name}'"
         if spec.kind == "tree":
-            out.append(f"anchor '{name}': a living tree; only its root plate (against a given "
-                       "capacity) and stem stress (against green MOR) are checked: have an "
-                       "arborist assess it")
+            tree = spec.tree
+            if tree is None or tree.root_plate_capacity is None:
+                out.append(NotChecked(name, "the root plate's overturning capacity",
+                                      "no assessed root_plate_capacity given: have an arborist "
+                                      "assess the tree and give it"))
+            out.append(NotChecked(name, "the living tree as a whole (decay, species, health)",
+                                  "only the root plate (against the given capacity) and the stem "
+                                  "stress (against green MOR) are checked: have an arborist "
+                                  "assess it"))
             continue
         if spec.post.kind != "laminated" and (anchor.post_section or {}).get("ref") is None:
-            out.append(f"anchor '{name}': post stresses not checked (no species and grade)")
+            out.append(NotChecked(name, "post stresses", "no species and grade given"))
         if spec.footing is not None and spec.footing.kind == "pier":
-            out.append(f"anchor '{name}': the concrete pier itself (reinforcement, bearing of "
-                       "the post in the pier) is not checked")
-        if anchor.footing is not None and not has_soil_limit(anchor.footing):
-            out.append(f"anchor '{name}': soil utilization not checked (linear modulus soil has "
-                       "no ultimate resistance); the tilt and IBC checks still apply")
+            out.append(NotChecked(name, "the concrete pier itself (flexure, shear, "
+                                        "reinforcement, bearing of the post in the pier)",
+                                  "spanstay has no concrete pier check yet"))
         if anchor.footing is not None:
+            if has_soil_limit(anchor.footing):
+                ratio, length = soil_limit_ratio(system, anchor, states) if states else (0.0, 0.0)
+                seen = (f"; largest p/p_u {ratio:.2f}, soil at its limit over {length:.2f} m"
+                        if states else "")
+                out.append(NotChecked(name, "the soil's ultimate lateral capacity",
+                                      "the p-y curves cap each soil reaction at its limit, so "
+                                      "p/p_u cannot exceed 1 and is reported, not checked"
+                                      + seen))
+            else:
+                out.append(NotChecked(name, "soil utilization", "a linear-modulus soil has no "
+                                      "ultimate resistance; the tilt and IBC checks still apply"))
+            out.append(NotChecked(name, "uplift, end bearing and the footing's own weight",
+                                  "the footing toe is held vertically in the model"))
             layers = anchor.footing.profile.layers
-            if any(l.ibc_class is None for l in layers if l.top < anchor.footing.footing.depth):
-                out.append(f"anchor '{name}': IBC embedment not checked (give ibc_class for "
-                           "every soil layer the footing passes through)")
-    out.append("torsion in posts and bearing of hardware on the wood are not checked")
+            if any(lay.ibc_class is None for lay in layers if lay.top < anchor.footing.footing.depth):
+                out.append(NotChecked(name, "IBC 2021 embedment depth (Eq. 18-1/18-2)",
+                                      "a soil layer the footing passes through has no ibc_class "
+                                      "(give the Table 1806.2 class of every such layer)"))
+    out.append(NotChecked("posts", "torsion", "spanstay does not check torsion in posts"))
+    out.append(NotChecked("hardware", "bearing of hardware (eye bolts, plates) on the wood and "
+                          "the hardware's own rating", "use the maker's ratings; not modelled"))
     return out

@@ -302,17 +302,34 @@ def write_report(out_dir: Path, summary: dict) -> Path:
              "<section class='cautions'><h2>Cautions</h2><ul>"]
     parts += [f"<li>{escape(str(c))}</li>" for c in cautions]
     parts.append("</ul></section>")
-    if checks:
+    verdict = summary.get("verdict") or {}
+    for inc in verdict.get("incomplete") or []:  # a pass that stopped early comes first
+        parts.append(
+            f"<p class='verdict fail'>ANALYSIS INCOMPLETE: pass {escape(str(inc['pass_name']))} "
+            f"({escape(str(inc['purpose']))}, rider {show(inc['rider_weight'], 'force', units)}) "
+            f"found no equilibrium with the rider {show(inc['at'], 'length', units)} along the "
+            f"cable after {inc['stations_solved']} of {inc['stations']} stations; largest "
+            f"imbalance in {escape(str(inc['gave_way']))}. No check or ride figure uses this "
+            "pass.</p>")
+    if verdict:
+        cls = "pass" if verdict.get("status") == "pass" else "fail"
+        parts.append(f"<p class='verdict {cls}'>{escape(str(verdict.get('line', '')))}</p>")
+    elif checks:
         cls = "fail" if failed else "pass"
         text = (f"{len(failed)} of {len(checks)} checks FAIL" if failed
                 else f"all {len(checks) - len(unknown)} rated checks pass")
-        if unknown:
-            text += f"; {len(unknown)} without a verdict"
         parts.append(f"<p class='verdict {cls}'>{escape(text)}</p>")
     parts.append("<h2>Checks</h2>")
     parts.append("<p>Utilization is demand over capacity (at most 1 passes); failed checks come "
                  "first, then the others from the most to the least utilized.</p>")
     parts.append(check_table(checks, units))
+    not_checked = verdict.get("not_checked") or []
+    if not_checked:
+        parts.append("<h2>Not checked</h2><p>These were not checked by this run; each needs "
+                     "its own assessment before anyone rides.</p><ul class='not-checked'>")
+        parts += [f"<li><strong>{escape(str(n['part']))}</strong>: {escape(str(n['what']))}: "
+                  f"{escape(str(n['reason']))}</li>" for n in not_checked]
+        parts.append("</ul>")
 
     parts.append("<h2>The structure</h2>")
     parts += [f"<p>{escape(n)}</p>" for n in notes]

@@ -41,7 +41,17 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
     from spanstay.models.analysis.installed import end_tensions, measured_sag
 
     sc, system = result.scenario, result.system
+    verdict = result.verdict
     lines = [f"spanstay run: {sc.project.name}"]
+    for inc in verdict.incomplete:  # a pass that stopped early is the first finding
+        lines.append(f"  ANALYSIS INCOMPLETE: pass '{inc.pass_name}' ({inc.purpose}, rider "
+                     f"{show(inc.rider_weight, 'force', units)}) found no equilibrium with the "
+                     f"rider {show(inc.at, 'length', units)} along the cable, after "
+                     f"{inc.stations_solved} of {inc.stations} stations; largest imbalance in "
+                     f"{inc.gave_way}")
+    if verdict.incomplete:
+        lines.append("  Results of the passes that stopped are not used for any check or ride "
+                     "figure; fix the cause (or the design) and run again.")
     for name, line in system.lines.items():
         t0, t1 = end_tensions(system, result.installed, line)
         lines.append(f"  installed line '{name}': sag {show(measured_sag(system, result.installed, line), 'length', units)}, "
@@ -71,7 +81,8 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
             lines.append(f"    {name:<46} {_value(v, 'length', units)}")
     from spanstay.models.analysis.anchor_shares import anchor_shares
 
-    for name, share in anchor_shares(result).items():
+    shares = anchor_shares(result) if result.passes["design"].complete else {}
+    for name, share in shares.items():
         parts = ", ".join(f"{part} {100 * f:.0f} %" for part, f in share["fraction"].items() if f > 0.005)
         lines.append(f"  anchor '{name}' holds the pull with: {parts}")
     lines.append("  checks:")
@@ -84,7 +95,10 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         util_s = f"{util:5.2f}" if util is not None else "  -  "
         lines.append(f"    {mark} {util_s}  {d['where']}: {d['description']}: {_value(d['demand'], d['kind'], units)} "
                      f"vs {_value(d['capacity'], d['kind'], units)}{_governing(d.get('governing') or {}, units)}")
-    lines.append(f"  {len(result.checks) - failed} checks pass, {failed} fail")
+    if verdict.not_checked:
+        lines.append("  not checked:")
+        lines += [f"    -    {n.sentence()}" for n in verdict.not_checked]
+    lines.append(f"  verdict: {verdict.counts_line()}")
     lines.append(f"  results: {out_dir}")
     lines.append("")
     lines += [f"CAUTION: {c}" for c in cautions_for(sc)]

@@ -8,6 +8,8 @@ Top-level tables: ``[project]``, ``[settings]``, ``[[line]]``, ``[rider]``,
 """
 from __future__ import annotations
 
+import dataclasses
+
 import tomllib
 from pathlib import Path
 from typing import Any
@@ -18,7 +20,7 @@ from spanstay.models.scenario.anchor import read_anchor
 from spanstay.models.scenario.geometry import check_anchor_names, check_scenario, plan_span
 from spanstay.models.scenario.ground import read_ground
 from spanstay.models.common.errors import did_you_mean
-from spanstay.models.scenario.reader import Table
+from spanstay.models.scenario.reader import PLACEHOLDERS, Table
 from spanstay.models.scenario.spec import (DEFAULT_AIR_DENSITY, DEFAULT_DRAG_AREA, DEFAULT_DYNAMIC_FACTOR,
                          DEFAULT_END_OFFSET, DEFAULT_FACTOR_OF_SAFETY,
                          DEFAULT_INSTALL_TEMPERATURE, DEFAULT_ROLLING_RESISTANCE,
@@ -73,6 +75,16 @@ def load_scenario(path: str | Path) -> Scenario:
 
 def read_scenario(data: dict[str, Any], default_name: str = "scenario") -> Scenario:
     """Check an already parsed scenario (a dict as from :func:`tomllib.loads`)."""
+    seen: list[tuple[str, bool]] = []
+    token = PLACEHOLDERS.set(seen)
+    try:
+        scenario = _read(data, default_name)
+    finally:
+        PLACEHOLDERS.reset(token)
+    return dataclasses.replace(scenario, placeholders=tuple(seen))
+
+
+def _read(data: dict[str, Any], default_name: str) -> Scenario:
     top = Table(data, "", TOP_KEYS)
     project = _read_project(top.table("project", PROJECT_KEYS), default_name)
     settings = _read_settings(top.table("settings", SETTINGS_KEYS))

@@ -7,12 +7,16 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable
+from contextvars import ContextVar
 from typing import Any
 
 from spanstay.models.common.errors import InputError, did_you_mean
 from spanstay.models.common.units import DIMENSIONS, parse_quantity, parse_ratio
 
 REQUIRED: Any = object()  # marker: the key must be present
+
+#: the placeholders met while reading one scenario: (key path, accepted)
+PLACEHOLDERS: ContextVar[list[tuple[str, bool]] | None] = ContextVar("placeholders", default=None)
 
 
 def _kind_of(value: Any) -> str:
@@ -89,9 +93,24 @@ class Table:
         value = self.raw(key, default, f'{dim.words}, e.g. "{dim.example}"')
         if key not in self.data:
             return value
+        value = self._placeholder(key, value)
         si = parse_quantity(value, dimension, self.where(key))
         self._check_range(key, si, value, positive, minimum, maximum, dimension)
         return si
+
+    def _placeholder(self, key: str, value: Any) -> Any:
+        """The value inside ``{ placeholder = "...", accepted = true }`` (starters write
+        values the user must replace so); recorded for the run to refuse or list."""
+        if not isinstance(value, dict) or "placeholder" not in value:
+            return value
+        sub = Table(value, self.where(key), ("placeholder", "accepted"))
+        accepted = sub.raw("accepted", False)
+        if not isinstance(accepted, bool):
+            raise InputError(f"expected true or false, got {accepted!r}", sub.where("accepted"))
+        seen = PLACEHOLDERS.get()
+        if seen is not None:
+            seen.append((self.where(key), accepted))
+        return sub.raw("placeholder")
 
     def number(self, key: str, default: Any = REQUIRED, *, positive: bool = False,
                minimum: float | None = None, maximum: float | None = None) -> Any:

@@ -294,6 +294,8 @@ class Scenario:
     rider: RiderSpec | None
     ground: GroundSpec
     anchors: tuple[AnchorSpec, ...]
+    #: values written as { placeholder = "...", accepted = true|false }: (key path, accepted)
+    placeholders: tuple[tuple[str, bool], ...] = ()
 
     def anchor(self, name: str) -> AnchorSpec:
         """The anchor with this name (KeyError if none)."""

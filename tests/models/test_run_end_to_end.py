@@ -19,7 +19,10 @@ def run_folder(tmp_path_factory):
     out = tmp_path_factory.mktemp("run") / "results"
     result = CliRunner().invoke(main, ["run", str(EXAMPLE), "--out", str(out), "--stations", "6",
                                        "--units", "si"])
-    assert result.exit_code == 0, result.output
+    # exit status: 0 every check passes, 3 some fail, 4 incomplete (models/checks/verdict.py)
+    summary = json.loads((out / "summary.json").read_text())
+    any_failed = any(c["passed"] is False for c in summary["checks"])
+    assert result.exit_code == (3 if any_failed else 0), result.output
     return out, result.output
 
 
