@@ -39,8 +39,8 @@ def bench(path: Path, stations: int) -> None:
                 phases[name] = phases.get(name, 0.0) + time.perf_counter() - t0
         return wrapper
 
-    original = (run.install, run.run_case, slack.slack_budget, api.run_verdict)
-    run.install, run.run_case = timed("install", run.install), timed("passes", run.run_case)
+    original = (run.install, run.run_cases, slack.slack_budget, api.run_verdict)
+    run.install, run.run_cases = timed("install", run.install), timed("passes", run.run_cases)
     slack.slack_budget = timed("slack budget", slack.slack_budget)
     api.run_verdict = timed("checks", api.run_verdict)
     try:
@@ -48,7 +48,7 @@ def bench(path: Path, stations: int) -> None:
         result = api.analyse(scenario, stations=stations)
         total = time.perf_counter() - t0
     finally:
-        run.install, run.run_case, slack.slack_budget, api.run_verdict = original
+        run.install, run.run_cases, slack.slack_budget, api.run_verdict = original
     iterations = [sum(s.iterations) for p in result.passes.values() for s in p.states]
     with tempfile.TemporaryDirectory() as tmp:
         t0 = time.perf_counter()

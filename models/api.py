@@ -43,7 +43,7 @@ def load(source: str | Path | dict[str, Any], name: str = "scenario") -> Scenari
 
 def analyse(scenario: Scenario | str | Path | dict[str, Any], stations: int | None = None,
             progress: Callable[[str, int], None] | None = None,
-            slack_budget: bool = True) -> RunResult:
+            slack_budget: bool = True, workers: int | None = None) -> RunResult:
     """Run every load case of a scenario, then every check.
 
     Parameters
@@ -56,12 +56,15 @@ def analyse(scenario: Scenario | str | Path | dict[str, Any], stations: int | No
         Called as ``progress(pass_name, 1)`` after each solved station.
     slack_budget
         Work out the slack budget (several extra solves).
+    workers
+        Processes running the load cases side by side (default: one per case,
+        at most the cores available; 1 forces a serial run). Same answers.
     """
     if not isinstance(scenario, Scenario):
         scenario = load(scenario)
     refuse_open_placeholders(scenario)
     result = _analyse_passes(scenario, stations=stations, progress=progress,
-                             slack_budget=slack_budget)
+                             slack_budget=slack_budget, workers=workers)
     result.verdict = run_verdict(result)
     result.checks = result.verdict.checks
     return result

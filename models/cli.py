@@ -88,7 +88,11 @@ def validate(file: str, units: str | None) -> None:
               help="Units of the terminal summary (default: the scenario's preference).")
 @click.option("--stations", type=click.IntRange(2, 2000), default=None,
               help="Rider stations along the line (default: the scenario's).")
-def run(file: str, out_dir: str | None, units: str | None, stations: int | None) -> None:
+@click.option("--workers", type=click.IntRange(1, 64), default=None, metavar="N",
+              help="Processes running the passes side by side (default: one per pass, at "
+                   "most the cores; 1 runs them one after another).")
+def run(file: str, out_dir: str | None, units: str | None, stations: int | None,
+        workers: int | None) -> None:
     """Hang the line, move the riders along it, and check every part.
 
     Exit status: 0 every check passes (the analysis complete); 3 some check fails;
@@ -113,7 +117,8 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None)
         count = stations or scenario.rider.stations
         with click.progressbar(length=pass_count(scenario) * count, label="rider stations",
                                file=sys.stderr) as bar:
-            result = analyse(scenario, stations=count, progress=lambda label, n: bar.update(n))
+            result = analyse(scenario, stations=count, progress=lambda label, n: bar.update(n),
+                             workers=workers)
         target = Path(out_dir) if out_dir else path.with_name(f"{path.stem}_results")
         written = write_results(result, target, str(path), units)
     except (InputError, FemError, OSError) as exc:

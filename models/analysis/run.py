@@ -13,7 +13,8 @@ from spanstay.models.analysis.installed import install
 from spanstay.models.analysis.load_cases import LoadCase, load_cases, needs_ultimate_slip
 from spanstay.models.analysis.clearance import Clearance, feet_clearance
 from spanstay.models.analysis.ride import RideResult, ride_speed
-from spanstay.models.analysis.run_case import Structure, run_case, station_coordinates
+from spanstay.models.analysis.parallel import default_workers, run_cases
+from spanstay.models.analysis.run_case import Structure, station_coordinates
 from spanstay.models.analysis.stations import Pass
 from spanstay.models.common.errors import InputError
 from spanstay.models.common.units import STANDARD_GRAVITY
@@ -59,10 +60,13 @@ def structures(scenario: Scenario) -> dict[str, Structure]:
 
 def analyse(scenario: Scenario, stations: int | None = None,
             progress: Callable[[str, int], None] | None = None,
-            slack_budget: bool = True) -> RunResult:
+            slack_budget: bool = True, workers: int | None = None) -> RunResult:
     """Run every load case of a scenario with a rider (no checks).
 
-    ``progress(label, count)`` is called once per solved station.
+    ``progress(label, count)`` is called once per solved station. ``workers``
+    processes run the cases side by side (default: one per case, at most the
+    cores available; 1 runs them one after another here); the answers are the
+    same either way.
     """
     rider = scenario.rider
     if rider is None:
@@ -71,14 +75,13 @@ def analyse(scenario: Scenario, stations: int | None = None,
     built = structures(scenario)
     service = built["service"]
     coords: dict[str, np.ndarray] = {}
-    passes: dict[str, Pass] = {}
     for case in cases:
         if case.line not in coords:  # stations on the installed (service) shape
             coords[case.line] = station_coordinates(service.system, service.installed, case.line,
                                                     rider.start_offset, rider.stop_offset,
                                                     case.stations)
-        tick = (lambda lab=case.name: progress(lab, 1)) if progress else None
-        passes[case.name] = run_case(built[case.slip], case, coords[case.line], progress=tick)
+    n_workers = default_workers(len(cases)) if workers is None else int(workers)
+    passes = run_cases(built, cases, coords, n_workers, progress)
     strength = built["ultimate"]
     result = RunResult(scenario, service.system, service.installed, service.lengths,
                        coords[rider.line], passes, design_system=strength.system,
