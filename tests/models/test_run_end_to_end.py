@@ -4,6 +4,8 @@ import json
 import math
 from pathlib import Path
 
+import tomllib
+
 import pytest
 from click.testing import CliRunner
 
@@ -12,6 +14,14 @@ from spanstay.models.cli import main
 EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "orchard-family-line.toml"
 LBF = 4.4482216152605  # N per lbf (NIST SP 811)
 FT = 0.3048            # m per ft (exact)
+SCENARIO = tomllib.loads(EXAMPLE.read_text())
+
+
+def number(text, unit):
+    """The number of the example's quantity string such as "1.1 ft" (unit checked)."""
+    value, given = text.split()
+    assert given == unit, text
+    return float(value)
 
 
 @pytest.fixture(scope="module")
@@ -37,11 +47,15 @@ def test_summary_matches_hand_values(run_folder):
     out, _ = run_folder
     summary = json.loads((out / "summary.json").read_text())
     assert summary["cautions"]
-    # the installed sag is the scenario's 1.0 ft (form-finding with deforming anchors)
-    assert summary["installed"]["lines"]["family"]["sag"] == pytest.approx(1.0 * FT, rel=1e-3)
-    # riders: 220 lbf static, x 1.5 dynamic factor for the design pass (scenario values)
-    assert summary["passes"]["ride_heavy"]["weight"] == pytest.approx(220 * LBF, rel=1e-9)
-    assert summary["passes"]["design"]["weight"] == pytest.approx(1.5 * 220 * LBF, rel=1e-9)
+    line = SCENARIO["line"][0]
+    # the installed sag is the scenario's (form-finding with deforming anchors)
+    sag = number(line["sag"], "ft") * FT
+    assert summary["installed"]["lines"][line["name"]]["sag"] == pytest.approx(sag, rel=1e-3)
+    # riders: the heaviest static, x the dynamic factor for the design pass (scenario values)
+    heaviest = number(SCENARIO["rider"]["heaviest"], "lbf") * LBF
+    factor = SCENARIO["settings"]["dynamic_factor"]
+    assert summary["passes"]["ride_heavy"]["weight"] == pytest.approx(heaviest, rel=1e-9)
+    assert summary["passes"]["design"]["weight"] == pytest.approx(factor * heaviest, rel=1e-9)
     for p in summary["passes"].values():
         assert p["stations"] == 6
     # cable check capacity: 3/8 in 7x19 minimum breaking strength 14,400 lb
@@ -83,7 +97,10 @@ def test_files_in_the_results_folder(run_folder):
 
 def test_bad_scenario_exits_2_without_traceback(tmp_path):
     bad = tmp_path / "bad.toml"
-    bad.write_text(EXAMPLE.read_text().replace('sag = "1.0 ft"', 'sag = "1.0"'))
+    sag = SCENARIO["line"][0]["sag"]
+    text = EXAMPLE.read_text()
+    assert f'sag = "{sag}"' in text
+    bad.write_text(text.replace(f'sag = "{sag}"', f'sag = "{sag.split()[0]}"'))
     out = tmp_path / "out"
     result = CliRunner().invoke(main, ["run", str(bad), "--out", str(out)])
     assert result.exit_code == 2

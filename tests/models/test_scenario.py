@@ -19,6 +19,14 @@ def layout(name="two-posts"):
     return tomllib.loads(layout_text(name))
 
 
+def number(text, unit):
+    """The number of a layout's quantity string such as "0.9 ft", read here
+    independently of the scenario reader (its unit must be ``unit``)."""
+    value, given = text.split()
+    assert given == unit, text
+    return float(value)
+
+
 def fails(data, where, *words):
     """Reading ``data`` raises InputError at key path ``where`` naming ``words``."""
     with pytest.raises(InputError) as err:
@@ -38,9 +46,10 @@ def test_every_starter_layout_validates(name):
 
 
 def test_two_posts_values_in_si():
-    s = read_scenario(layout("two-posts"))
+    data = layout("two-posts")
+    s = read_scenario(data)
     line = s.lines[0]
-    assert line.sag == pytest.approx(0.8 * FT, rel=1e-12)
+    assert line.sag == pytest.approx(number(data["line"][0]["sag"], "ft") * FT, rel=1e-12)
     assert line.tension is None and line.unstressed_length is None
     # FAA AC 43.13-1B Table 7-3: 3/8 in 7x19, 14,400 lb
     assert line.rope.breaking_strength == pytest.approx(14400 * LBF, rel=1e-9)
@@ -52,10 +61,11 @@ def test_two_posts_values_in_si():
     # PS 20: an 8x8 timber dresses to 7-1/2 x 7-1/2 in
     landing = s.anchor("landing")
     assert landing.post.section.width == pytest.approx(7.5 * INCH)
-    assert landing.grade == pytest.approx(-6 * FT)
-    # 60 degF = 288.706 K (NIST SP 811 B.8)
-    assert s.settings.install_temperature == pytest.approx((60 + 459.67) / 1.8)
-    assert s.rider.heaviest == pytest.approx(250 * LBF, rel=1e-12)
+    assert landing.grade == pytest.approx(number(data["anchor"][1]["grade"], "ft") * FT)
+    # T(K) = (T(degF) + 459.67) / 1.8 (NIST SP 811 B.8)
+    degf = number(data["settings"]["install_temperature"], "degF")
+    assert s.settings.install_temperature == pytest.approx((degf + 459.67) / 1.8)
+    assert s.rider.heaviest == pytest.approx(number(data["rider"]["heaviest"], "lbf") * LBF, rel=1e-12)
     clay = s.ground.soil[1]
     assert clay.preset == "stiff_clay" and clay.kind == "clay"
     assert clay.undrained_shear_strength == pytest.approx(1500 * 47.880259, rel=1e-7)
@@ -75,7 +85,9 @@ def test_missing_profile_is_straight_between_anchor_grades():
     del data["ground"]["profile"]
     s = read_scenario(data)
     (x0, z0), (x1, z1) = s.ground.profile
-    assert (x0, z0, x1, z1) == pytest.approx((0.0, 0.0, 110 * FT, -6 * FT))
+    landing = data["anchor"][1]
+    span = number(landing["position"][0], "ft") * FT
+    assert (x0, z0, x1, z1) == pytest.approx((0.0, 0.0, span, number(landing["grade"], "ft") * FT))
 
 
 def test_guy_ground_point_from_direction_and_distance():
@@ -152,11 +164,17 @@ def test_two_anchors_at_the_same_point():
 
 def test_unstressed_length_shorter_than_chord():
     data = layout()
-    del data["line"][0]["sag"]
-    data["line"][0]["unstressed_length"] = "110 ft"  # chord is 110.4 ft
+    line, landing = data["line"][0], data["anchor"][1]
+    # the chord between the attachments, from the layout's own positions and heights
+    span = number(landing["position"][0], "ft")
+    drop = number(line["from_height"], "ft") - (number(landing["grade"], "ft")
+                                               + number(line["to_height"], "ft"))
+    chord = (span**2 + drop**2) ** 0.5
+    del line["sag"]
+    line["unstressed_length"] = f"{span} ft"  # the span: shorter than the chord
     fails(data, LINE1 + ".unstressed_length", "chord")
-    data["line"][0]["unstressed_length"] = "111 ft"
-    assert read_scenario(data).lines[0].unstressed_length == pytest.approx(111 * FT)
+    line["unstressed_length"] = f"{chord + 1} ft"
+    assert read_scenario(data).lines[0].unstressed_length == pytest.approx((chord + 1) * FT)
 
 
 def test_exactly_one_of_sag_tension_unstressed_length():
@@ -374,9 +392,10 @@ def test_cli_validate_units_switch(tmp_path):
     target = tmp_path / "line.toml"
     target.write_text(layout_text("two-posts"))
     runner = CliRunner()
-    assert "span 110 ft" in runner.invoke(main, ["validate", str(target)]).output
-    # 110 ft = 33.528 m
-    assert "span 33.5 m" in runner.invoke(main, ["validate", str(target), "--units", "si"]).output
+    span = number(layout("two-posts")["anchor"][1]["position"][0], "ft")
+    assert f"span {span:.3g} ft" in runner.invoke(main, ["validate", str(target)]).output
+    # 1 ft = 0.3048 m exactly (NIST SP 811)
+    assert f"span {span * FT:.3g} m" in runner.invoke(main, ["validate", str(target), "--units", "si"]).output
 
 
 def test_cli_init_refuses_to_overwrite(tmp_path):
