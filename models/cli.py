@@ -40,8 +40,8 @@ class _Commands(click.Group):
             return super().invoke(ctx)
         except KeyboardInterrupt as exc:
             num = getattr(exc, "signum", signal.SIGINT)
-            click.echo(f"\nspanstay: stopped by {signal.Signals(num).name}; no results folder was "
-                       "left half-written, and no verdict was reached", err=True)
+            click.echo(f"\nspanstay: stopped by {signal.Signals(num).name} before finishing; no "
+                       "verdict was reached and nothing was left half-written", err=True)
             sys.exit(128 + num)
         finally:
             for num, handler in before.items():

@@ -140,7 +140,8 @@ def _is_ours(folder: Path, rel: str, marker: dict) -> bool:
     if rel in (MARKER, MARKER + ".part"):
         return True
     if marker["state"] == "writing":
-        return any(fnmatch.fnmatchcase(rel, pat) for pat in OUTPUT_NAMES)
+        return any(fnmatch.fnmatchcase(rel, pat) and rel.count("/") == pat.count("/")
+                   for pat in OUTPUT_NAMES)
     entry = marker["files"].get(rel)
     if entry is None or entry.get("size") != st.st_size:
         return False

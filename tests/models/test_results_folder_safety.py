@@ -167,6 +167,7 @@ def test_exchange_unavailable_falls_back_to_two_renames(run_result, template, tm
 
 @pytest.mark.parametrize("mask", [0o027])
 def test_permissions_follow_the_umask(run_result, tmp_path, mask):
+    (tmp_path / "new" / "site_results").mkdir(parents=True)  # an empty folder may be named too
     old = os.umask(mask)
     try:
         out = write_results(run_result, tmp_path / "new" / "site_results", str(EXAMPLE), "si")
@@ -179,6 +180,7 @@ def test_permissions_follow_the_umask(run_result, tmp_path, mask):
         assert stat.S_IMODE(d.stat().st_mode) == 0o777 & ~mask, d
     for f in files:  # POSIX open(2) with O_CREAT: 0666 & ~umask
         assert stat.S_IMODE(f.stat().st_mode) == 0o666 & ~mask, f
+    assert sorted(p.name for p in (tmp_path / "new").iterdir()) == ["site_results"]
 
 
 # -- temporaries of killed runs -------------------------------------------------
