@@ -30,7 +30,9 @@ from pathlib import Path, PurePosixPath
 
 MARKER = ".spanstay-results.json"
 FORMAT, VERSION = "spanstay-results", 1
-# what spanstay writes into a results folder (relative paths, POSIX patterns)
+# what spanstay writes into a results folder (relative paths, POSIX patterns); a new
+# output must be added here, or a killed run's temporary holding it is kept, not tidied
+# (tests/models/test_results_folder_safety.py checks every written file matches)
 OUTPUT_NAMES = ("summary.json", "stations.csv", "report.html", "vtk/*.vtu", "vtk/*.pvd",
                 "plots/*.png", MARKER, MARKER + ".part")
 OUTPUT_FOLDERS = ("vtk", "plots")

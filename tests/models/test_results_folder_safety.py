@@ -10,6 +10,7 @@ count of station files that summary.json's pass lengths call for.
 """
 from __future__ import annotations
 
+import fnmatch
 import hashlib
 import json
 import os
@@ -28,7 +29,8 @@ from spanstay.models.cli import main
 from spanstay.models.common.errors import InputError
 from spanstay.models.outputs import results_swap
 from spanstay.models.outputs.results_folder import write_results
-from spanstay.models.outputs.results_marker import MARKER, finish_marker, read_marker, start_marker
+from spanstay.models.outputs.results_marker import (MARKER, OUTPUT_NAMES, finish_marker, read_marker,
+                                                    start_marker)
 from spanstay.models.outputs.results_swap import clean_stale, retire, temp_name
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -156,6 +158,10 @@ def test_rerun_replaces_old_results_and_removes_only_listed_files(run_result, te
     assert not (out / "vtk" / "design_009.vtu").exists()
     assert _assert_complete(out) == 2
     assert not _temporaries(out) and sorted(p.name for p in tmp_path.iterdir()) == ["site_results"]
+    # every output is named as a killed run's temporary may be tidied by
+    for rel in read_marker(out)["files"]:
+        assert any(fnmatch.fnmatchcase(rel, pat) and rel.count("/") == pat.count("/")
+                   for pat in OUTPUT_NAMES), rel
 
 
 def test_exchange_unavailable_falls_back_to_two_renames(run_result, template, tmp_path, monkeypatch):
@@ -283,15 +289,16 @@ def _writing(out: Path, pid: int):
     return ready
 
 
-def test_sigterm_while_writing_leaves_no_temporary_and_old_results_whole(template, tmp_path):
+@pytest.mark.parametrize("sig", [signal.SIGTERM, signal.SIGHUP])
+def test_a_signal_while_writing_leaves_no_temporary_and_old_results_whole(template, tmp_path, sig):
     out = _copy(template, tmp_path)
     before = _snapshot(out)
     proc = _start(out, tmp_path, 0.2)
     _wait_for(proc, _writing(out, proc.pid))
-    proc.send_signal(signal.SIGTERM)
+    proc.send_signal(sig)
     _, err = proc.communicate(timeout=60)
-    assert proc.returncode == 128 + signal.SIGTERM, err.decode()
-    assert "stopped by SIGTERM" in err.decode() and "Traceback" not in err.decode()
+    assert proc.returncode == 128 + sig, err.decode()
+    assert f"stopped by {sig.name}" in err.decode() and "Traceback" not in err.decode()
     assert not _temporaries(out)
     assert _snapshot(out) == before and _assert_complete(out) == 2
 
