@@ -94,7 +94,12 @@ def results(result: RunResult, units: str = "si") -> dict[str, Any]:
 
 def write_results(result: RunResult, folder: str | Path, units: str = "us",
                   scenario_file: str = "") -> Path:
-    """Write the results folder (summary.json, stations.csv, VTK, plots, report.html)."""
+    """Write the results folder (summary.json, stations.csv, VTK, plots, report.html).
+
+    ``folder`` must be new, empty, or a results folder spanstay wrote that holds
+    only its own unchanged files; anything else raises InputError (where
+    ``--out``) and nothing is touched. See DEVELOPERS.md, "The results folder".
+    """
     from spanstay.models.outputs.results_folder import write_results as _write
 
     return _write(result, Path(folder), scenario_file, units)

@@ -1,9 +1,51 @@
 """The ``spanstay`` command line. Heavy libraries are imported inside commands."""
 from __future__ import annotations
 
+import signal
 import sys
 
 import click
+
+# ending signals a run treats like Ctrl-C, so that its clean-up runs (see results_swap)
+_ENDING_SIGNALS = ("SIGTERM", "SIGHUP", "SIGQUIT", "SIGUSR1", "SIGUSR2", "SIGALRM", "SIGXCPU",
+                   "SIGXFSZ", "SIGVTALRM", "SIGPROF")
+
+
+class Stopped(KeyboardInterrupt):
+    """An ending signal, raised where the program is, like Ctrl-C's KeyboardInterrupt."""
+
+    def __init__(self, signum: int) -> None:
+        super().__init__(signum)
+        self.signum = signum
+
+
+def _raise_stopped(signum: int, frame) -> None:
+    raise Stopped(signum)
+
+
+class _Commands(click.Group):
+    """The command group; ending signals become KeyboardInterrupt while a command runs,
+    and an interrupted command says so and exits 128 + the signal number."""
+
+    def invoke(self, ctx: click.Context):
+        before = {}
+        for name in _ENDING_SIGNALS:
+            num = getattr(signal, name, None)
+            if num is not None and signal.getsignal(num) is signal.SIG_DFL:
+                try:
+                    before[num] = signal.signal(num, _raise_stopped)
+                except ValueError:  # not the main thread: leave signals alone
+                    break
+        try:
+            return super().invoke(ctx)
+        except KeyboardInterrupt as exc:
+            num = getattr(exc, "signum", signal.SIGINT)
+            click.echo(f"\nspanstay: stopped by {signal.Signals(num).name} before finishing; no "
+                       "verdict was reached and nothing was left half-written", err=True)
+            sys.exit(128 + num)
+        finally:
+            for num, handler in before.items():
+                signal.signal(num, handler)
 
 
 def _fail(exc: Exception) -> None:
@@ -11,7 +53,7 @@ def _fail(exc: Exception) -> None:
     sys.exit(2)
 
 
-@click.group(context_settings={"help_option_names": ["-h", "--help"]})
+@click.group(cls=_Commands, context_settings={"help_option_names": ["-h", "--help"]})
 @click.version_option(package_name="spanstay")
 def main() -> None:
     """spanstay: check cable rides and cable-anchored posts before anyone rides.
@@ -108,8 +150,11 @@ def run(file: str, out_dir: str | None, units: str | None, stations: int | None,
     from spanstay.models.scenario.read import load_scenario
     from spanstay.models.outputs.terminal import summary_lines
 
+    from spanstay.models.outputs.results_swap import check_target
+
     path = Path(file)
     try:
+        check_target(Path(out_dir) if out_dir else path.with_name(f"{path.stem}_results"), path)
         scenario = load_scenario(path)
         units = units or scenario.settings.units
         if scenario.rider is None:

@@ -1,20 +1,37 @@
 """Write a run's results folder: summary.json, stations.csv, VTK series, plots.
 
-Everything is written into a temporary folder beside the target and moved
-into place only when complete, so a failed run leaves nothing half-written.
+Never deletes or overwrites a file spanstay did not write, and never leaves a
+half-written folder (see :mod:`results_swap` for the rules, DEVELOPERS.md
+"The results folder" for the reasons):
+
+1. the target is checked (a new or empty folder, or a spanstay results folder
+   holding only its own unchanged files; never the scenario's folder or the
+   one you are in), and what killed runs left beside it is tidied;
+2. everything is written into a sibling temporary folder marked ``writing``;
+3. the marker ``.spanstay-results.json`` listing every file written (size and
+   SHA-256) is written last, then the folder is swapped in atomically;
+4. from the previous results only the files their marker lists, unchanged,
+   are deleted.
+
+Catchable signals are held back during steps 3-4 and during the clean-up of
+a failed write. ``$SPANSTAY_TEST_WRITE_DELAY`` (seconds) is a test hook: a
+pause after each file so that tests can send signals mid-write.
 """
 from __future__ import annotations
 
 import csv
 import json
-import shutil
-import tempfile
+import sys
+from collections.abc import Callable
 from pathlib import Path
 
 import numpy as np
 
 from spanstay.models.common.cautions import cautions_for
 from spanstay.models.common.json_safe import json_safe
+from spanstay.models.outputs.results_marker import finish_marker, start_marker
+from spanstay.models.outputs.results_swap import (check_target, clean_stale, make_temp, retire,
+                                                  signals_deferred, swap_into_place, test_pause)
 
 
 def _pass_dict(p) -> dict:
@@ -186,6 +203,7 @@ def _write_series(folder: Path, model, label: str, p) -> list[str]:
         name = f"{stem}_{i:03d}.vtu"
         write_vtu(folder / name, model, state)
         files.append(f"vtk/{name}")
+        test_pause()
     write_pvd(folder / f"{stem}.pvd", [(st.along, Path(f).name) for st, f in zip(p.stations, files)])
     return files
 
@@ -266,25 +284,51 @@ def _write_plots(folder: Path, result, units: str) -> dict[str, str]:
     return plots
 
 
-def write_results(result, out_dir: Path, scenario_file: str, units: str) -> Path:
-    """Write every output of a run into ``out_dir`` (replaced only when all is written)."""
-    out_dir = Path(out_dir).resolve()
+def _note(message: str) -> None:
+    print(f"spanstay: note: {message}", file=sys.stderr)
+
+
+def write_results(result, out_dir: Path, scenario_file: str, units: str,
+                  notify: Callable[[str], None] = _note) -> Path:
+    """Write every output of a run into ``out_dir`` (swapped in only when all is written).
+
+    Raises
+    ------
+    InputError
+        (where ``--out``) when ``out_dir`` is not a folder spanstay may replace;
+        nothing is written or deleted then.
+    """
+    from spanstay.models.outputs.report import write_report
+
+    out_dir = check_target(out_dir, scenario_file or None)
     out_dir.parent.mkdir(parents=True, exist_ok=True)
-    tmp = Path(tempfile.mkdtemp(prefix=f".{out_dir.name}.", dir=out_dir.parent))
+    with signals_deferred():
+        clean_stale(out_dir, notify)
+        tmp = make_temp(out_dir)
+        start_marker(tmp)
+    swapped = False
     try:
         vtk = _write_vtk(tmp / "vtk", result)
         plots = _write_plots(tmp / "plots", result, units)
+        test_pause()
         summary = build_summary(result, scenario_file, units, vtk, plots)
         _write_csv(tmp / "stations.csv", result)
-        from spanstay.models.outputs.report import write_report
-
+        test_pause()
         (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
         write_report(tmp, summary)  # reads the folder; adds its own figures to summary["plots"]
         (tmp / "summary.json").write_text(json.dumps(summary, indent=1, allow_nan=False))
-        if out_dir.exists():
-            shutil.rmtree(out_dir)
-        tmp.rename(out_dir)
+        test_pause()
+        with signals_deferred():  # a signal now waits until the swap and the tidy are done
+            finish_marker(tmp)
+            check_target(out_dir, scenario_file or None)  # again: the folder may have changed
+            aside = swap_into_place(tmp, out_dir)
+            swapped = True
+            if aside is not None:
+                test_pause()
+                retire(aside, out_dir, notify)
     except BaseException:
-        shutil.rmtree(tmp, ignore_errors=True)
+        if not swapped:
+            with signals_deferred():
+                retire(tmp, out_dir, notify)
         raise
     return out_dir

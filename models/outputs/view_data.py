@@ -135,7 +135,8 @@ def load_summary(folder: Path) -> dict:
     path = folder / "summary.json"
     if not path.is_file():
         raise InputError(f"'{folder}' has no summary.json: it is not a complete results folder "
-                         f"(run `spanstay run SCENARIO --out {folder}` again)")
+                         f"(run `spanstay run SCENARIO` again; its results go to SCENARIO_results beside "
+                         f"the scenario unless --out names a new folder)")
     try:
         summary = json.loads(path.read_text())
     except (OSError, ValueError) as exc:

@@ -92,7 +92,8 @@ def test_files_in_the_results_folder(run_folder):
     assert summary["soil_profiles"]
     for name in ("ride_profile", "speed", "tension"):
         assert (out / summary["plots"][name]).stat().st_size > 1000
-    assert not any(p.name.startswith(".results.") for p in out.parent.iterdir())
+    assert not any(".spanstay-" in p.name for p in out.parent.iterdir())  # no temporary left
+    assert (out / ".spanstay-results.json").is_file()  # the marker of a results folder
 
 
 def test_bad_scenario_exits_2_without_traceback(tmp_path):
