@@ -56,8 +56,9 @@ def run_cases(structures: dict[str, Structure], cases: tuple[LoadCase, ...],
     ctx = multiprocessing.get_context("fork" if "fork" in methods else "spawn")
     ticks = ctx.Queue()
     out: dict[str, Pass] = {}
-    with ProcessPoolExecutor(max_workers=workers, mp_context=ctx, initializer=_init,
-                             initargs=(ticks,)) as pool:
+    pool = ProcessPoolExecutor(max_workers=workers, mp_context=ctx, initializer=_init,
+                               initargs=(ticks,))
+    try:
         futures = {pool.submit(_work, structures[c.slip], c, stations[c.line]): c.name
                    for c in cases}
         pending = set(futures)
@@ -67,7 +68,21 @@ def run_cases(structures: dict[str, Structure], cases: tuple[LoadCase, ...],
             for f in done:
                 out[futures[f]] = f.result()
         _drain(ticks, progress)
+    except BaseException:  # an interrupt or a failed case: stop the workers at once
+        _stop(pool)
+        raise
+    pool.shutdown(wait=True)
     return {c.name: out[c.name] for c in cases}
+
+
+def _stop(pool: ProcessPoolExecutor) -> None:
+    """Cancel what has not started and end the worker processes now (a case in a
+    worker would otherwise run to its end before the run can stop)."""
+    processes = list(getattr(pool, "_processes", {}).values())  # no public handle exists
+    pool.shutdown(wait=False, cancel_futures=True)
+    for proc in processes:
+        if proc.is_alive():
+            proc.terminate()
 
 
 def _drain(ticks, progress) -> None:
