@@ -4,7 +4,8 @@ The element's rigid motion is followed by a frame attached to the chord and
 to the mean of the nodal triads; in that frame the beam is a linear
 Timoshenko element (Przemieniecki's stiffness). The internal force vector is
 exact for this kinematics (Battini-Pacoste style transformation); the tangent
-is its central-difference derivative, evaluated for all elements at once.
+is its closed-form derivative (:mod:`fem.beam_tangent`), evaluated for all
+elements at once, with the difference tangent kept as a test oracle.
 """
 from __future__ import annotations
 
@@ -15,6 +16,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import FORWARD_STEP, ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .beam_tangent import corotational_tangent
 from .rotation import cross3, logmap_moderate, tangent_inverse
 
 
@@ -153,13 +155,15 @@ class BeamGroup(ElementGroup):
 
     # -- kinematics ---------------------------------------------------
     @staticmethod
-    def _core(u1, u2, r1, r2, frame0, L0, k_local, chord0):
+    def _core(u1, u2, r1, r2, frame0, L0, k_local, chord0, keep: dict | None = None):
         """Forces (n, 12) and local section quantities for a batch of elements.
 
         ``u1``, ``u2`` are the end displacements; the chord is the initial
         chord plus their difference and the elongation is formed without
         subtracting two nearly equal lengths, so stiff members keep a residual
-        near round-off of the load rather than of the coordinates.
+        near round-off of the load rather than of the coordinates. When
+        ``keep`` is a dict, the intermediate kinematic quantities the
+        closed-form tangent needs are stored in it.
         """
         du = u2 - u1
         d = chord0 + du
@@ -194,22 +198,33 @@ class BeamGroup(ElementGroup):
         f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
         # f += B_i^T m_i with B_i = T^-1(th_i) (V_i - W_r): first y_i = T^-T m_i
-        y1 = np.einsum("nji,nj->ni", tangent_inverse(th1), m1)
-        y2 = np.einsum("nji,nj->ni", tangent_inverse(th2), m2)
+        inv_t1, inv_t2 = tangent_inverse(th1), tangent_inverse(th2)
+        y1 = np.einsum("nji,nj->ni", inv_t1, m1)
+        y2 = np.einsum("nji,nj->ni", inv_t2, m2)
         f -= np.einsum("nij,ni->nj", wr, y1 + y2)
         f[:, 3:6] += np.einsum("nij,nj->ni", rr, y1)
         f[:, 9:12] += np.einsum("nij,nj->ni", rr, y2)
+        if keep is not None:
+            keep.update(e1=e1, e2=e2, e3=e3, rr=rr, ln=ln, q=q, q1=q1, q2=q2, ql1=ql1, ql2=ql2,
+                        wr=wr, th1=th1, th2=th2, m1=m1, m2=m2, n_ax=n_ax, y1=y1, y2=y2,
+                        inv_t1=inv_t1, inv_t2=inv_t2)
         return f, fl, dl
 
     def _state(self, disp, rot):
         c = self.conn
         return disp[c[:, 0], :3], disp[c[:, 1], :3], rot[c[:, 0]], rot[c[:, 1]]
 
-    def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
+    def evaluate(self, x, rot, disp, tangent: bool | str = True) -> Evaluation:
+        """Forces, and with ``tangent`` the closed-form consistent tangent
+        (``tangent="difference"``: the one-sided difference tangent, a test oracle)."""
         u1, u2, r1, r2 = self._state(disp, rot)
-        f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
+        kin: dict | None = {} if tangent is True else None
+        f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0, kin)
         if not tangent:
             return Evaluation(f, None)
+        if kin is not None:
+            return Evaluation(f, corotational_tangent(kin, self.k_local, kin["inv_t1"], kin["inv_t2"]))
+
         def force_fn(a1, a2, b1, b2, reps):
             return self._core(a1, a2, b1, b2, np.tile(self.frame0, (reps, 1, 1)), np.tile(self.L0, reps),
                               self.k_local, np.tile(self.chord0, (reps, 1)))[0]
