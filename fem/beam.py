@@ -170,40 +170,48 @@ class BeamGroup(ElementGroup):
         ln = np.linalg.norm(d, axis=1)
         elong = (2.0 * np.einsum("ni,ni->n", chord0, du) + np.einsum("ni,ni->n", du, du)) / (ln + L0)
         e1 = d / ln[:, None]
-        t1 = r1 @ frame0
-        t2 = r2 @ frame0
-        q1, q2 = t1[:, :, 1], t2[:, :, 1]
+        t12 = np.stack([r1, r2]) @ frame0            # both end triads, (2, n, 3, 3)
+        q1, q2 = t12[0, :, :, 1], t12[1, :, :, 1]
         q = 0.5 * (q1 + q2)
         e3 = cross3(e1, q)
-        e3 /= np.linalg.norm(e3, axis=1)[:, None]
+        e3 /= np.sqrt(np.einsum("ni,ni->n", e3, e3))[:, None]
         e2 = cross3(e3, e1)
         rr = np.stack([e1, e2, e3], axis=2)
         rrt = np.transpose(rr, (0, 2, 1))
-        th1 = logmap_moderate(rrt @ t1)
-        th2 = logmap_moderate(rrt @ t2)
+        th = logmap_moderate(rrt @ t12)              # (2, n, 3) local end rotations
+        th1, th2 = th[0], th[1]
         dl = np.zeros((u1.shape[0], 12))
         dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, elong, th2
         reps = u1.shape[0] // k_local.shape[0]  # a batch of stacked copies shares k_local
-        fl = np.einsum("nij,rnj->rni", k_local, dl.reshape(reps, -1, 12)).reshape(-1, 12)
-        n_ax, m1, m2 = fl[:, 6], fl[:, 3:6], fl[:, 9:12]
+        if reps == 1:
+            fl = (k_local @ dl[:, :, None])[:, :, 0]
+        else:
+            fl = np.einsum("nij,rnj->rni", k_local, dl.reshape(reps, -1, 12)).reshape(-1, 12)
+        n_ax = fl[:, 6]
+        m12 = np.stack([fl[:, 3:6], fl[:, 9:12]])    # (2, n, 3) end moments
         # spin of the rigid frame, local components, as rows over the 12 DOFs
         ql1 = np.einsum("ni,ni->n", q, e1)
         ql2 = np.einsum("ni,ni->n", q, e2)
         wr = np.zeros((u1.shape[0], 3, 12))
-        wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2 / ln[:, None], e2 / ln[:, None]
-        wr[:, 1, 0:3], wr[:, 1, 6:9] = e3 / ln[:, None], -e3 / ln[:, None]
+        e2l, e3l = e2 / ln[:, None], e3 / ln[:, None]
+        wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2l, e2l
+        wr[:, 1, 0:3], wr[:, 1, 6:9] = e3l, -e3l
         wr[:, 0, :] = (ql1 / ql2)[:, None] * wr[:, 1, :]
-        wr[:, 0, 3:6] += cross3(q1, e3) / (2.0 * ql2[:, None])
-        wr[:, 0, 9:12] += cross3(q2, e3) / (2.0 * ql2[:, None])
+        c12 = cross3(t12[:, :, :, 1], e3[None]) / (2.0 * ql2[None, :, None])
+        wr[:, 0, 3:6] += c12[0]
+        wr[:, 0, 9:12] += c12[1]
         f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
         # f += B_i^T m_i with B_i = T^-1(th_i) (V_i - W_r): first y_i = T^-T m_i
-        inv_t1, inv_t2 = tangent_inverse(th1), tangent_inverse(th2)
-        y1 = np.einsum("nji,nj->ni", inv_t1, m1)
-        y2 = np.einsum("nji,nj->ni", inv_t2, m2)
-        f -= np.einsum("nij,ni->nj", wr, y1 + y2)
-        f[:, 3:6] += np.einsum("nij,nj->ni", rr, y1)
-        f[:, 9:12] += np.einsum("nij,nj->ni", rr, y2)
+        inv_t = tangent_inverse(th)                  # (2, n, 3, 3)
+        y12 = (np.swapaxes(inv_t, -1, -2) @ m12[..., None])[..., 0]
+        y1, y2 = y12[0], y12[1]
+        m1, m2 = m12[0], m12[1]
+        f -= ((y1 + y2)[:, None, :] @ wr)[:, 0]
+        ry = (rr[None] @ y12[..., None])[..., 0]
+        f[:, 3:6] += ry[0]
+        f[:, 9:12] += ry[1]
+        inv_t1, inv_t2 = inv_t[0], inv_t[1]
         if keep is not None:
             keep.update(e1=e1, e2=e2, e3=e3, rr=rr, ln=ln, q=q, q1=q1, q2=q2, ql1=ql1, ql2=ql2,
                         wr=wr, th1=th1, th2=th2, m1=m1, m2=m2, n_ax=n_ax, y1=y1, y2=y2,

@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .rotation import skew
+from .rotation import cross3, skew
 
 
 def _eta_mu(theta: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -85,8 +85,8 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     d_q1 = np.concatenate([zero, -skew(q1), zero, zero], axis=2)
     d_q2 = np.concatenate([zero, zero, zero, -skew(q2)], axis=2)
     d_q = 0.5 * (d_q1 + d_q2)
-    d_ql1 = np.einsum("ni,nij->nj", q, d_e1) + np.einsum("ni,nij->nj", e1, d_q)
-    d_ql2 = np.einsum("ni,nij->nj", q, d_e2) + np.einsum("ni,nij->nj", e2, d_q)
+    d_ql1 = (q[:, None, :] @ d_e1 + e1[:, None, :] @ d_q)[:, 0]
+    d_ql2 = (q[:, None, :] @ d_e2 + e2[:, None, :] @ d_q)[:, 0]
     # B: rows of d(local deformations) per DOF
     sel1 = np.concatenate([zero, np.transpose(rr, (0, 2, 1)), zero, zero], axis=2)
     sel2 = np.concatenate([zero, zero, zero, np.transpose(rr, (0, 2, 1))], axis=2)
@@ -94,7 +94,7 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     b1, b2 = inv_t1 @ g1, inv_t2 @ g2
     b = np.zeros((n, 12, 12))
     b[:, 3:6], b[:, 6], b[:, 9:12] = b1, d_ln, b2
-    k = np.einsum("nji,njk,nkl->nil", b, k_local, b)
+    k = np.transpose(b, (0, 2, 1)) @ (k_local @ b)
     # axial force turning with the chord
     n_ax = kin["n_ax"][:, None, None]
     k[:, 0:3] -= n_ax * d_e1
@@ -103,9 +103,9 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     y1, y2 = kin["y1"], kin["y2"]
     h1 = inverse_tangent_transpose_derivative(kin["th1"], kin["m1"]) @ b1
     h2 = inverse_tangent_transpose_derivative(kin["th2"], kin["m2"]) @ b2
-    k[:, 3:6] += -skew(np.einsum("nij,nj->ni", rr, y1)) @ omega + rr @ h1
-    k[:, 9:12] += -skew(np.einsum("nij,nj->ni", rr, y2)) @ omega + rr @ h2
-    k -= np.einsum("nki,nkj->nij", wr, h1 + h2)
+    k[:, 3:6] += -skew((rr @ y1[:, :, None])[:, :, 0]) @ omega + rr @ h1
+    k[:, 9:12] += -skew((rr @ y2[:, :, None])[:, :, 0]) @ omega + rr @ h2
+    k -= np.transpose(wr, (0, 2, 1)) @ (h1 + h2)
     # the spin map W_r itself varying, contracted with v = y_1 + y_2
     v = y1 + y2
     d_e2_l = d_e2 / ln[:, None, None] - e2[:, :, None] * d_ln[:, None, :] / ln[:, None, None] ** 2
@@ -118,7 +118,7 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     d_ratio = d_ql1 / ql2[:, None] - (ql1 / ql2**2)[:, None] * d_ql2
     d_wx = ratio[:, None, None] * d_wy + wr[:, 1, :, None] * d_ratio[:, None, :]
     for node, qi, d_qi in ((1, q1, d_q1), (3, q2, d_q2)):
-        c = np.cross(qi, e3)
+        c = cross3(qi, e3)
         d_c = -skew(e3) @ d_qi + skew(qi) @ d_e3
         blk = d_c / (2.0 * ql2[:, None, None]) - c[:, :, None] * d_ql2[:, None, :] / (
             2.0 * ql2[:, None, None] ** 2)

@@ -167,7 +167,7 @@ class Increment:
 
     # -- the iteration ------------------------------------------------------
     def run(self, state):
-        opts, asm, kept = self.opts, self.asm, self.kept
+        opts, kept = self.opts, self.kept
         history: list[float] = []
         evals, r_full, rn, ref = self.residual(state)
         last_disp_ok = at_roundoff = False
