@@ -9,10 +9,12 @@ import numpy as np
 from .assembly import Assembler
 from .errors import ConvergenceError, ImbalanceSite, ModelError
 from .group import DOF_NAMES
-from .linear import TIMINGS, LinearSolver, Timings  # noqa: F401  (re-exported: fem.solver.TIMINGS)
+from .linear import TIMINGS, LinearSolver, Timings
 from .newton import Counters, Fail, Increment, Kept
 from .rotation import expmap
 from .state import State
+
+__all__ = ["SolverOptions", "TIMINGS", "Timings", "solve"]
 
 
 @dataclass
