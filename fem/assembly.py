@@ -45,6 +45,8 @@ class Assembler:
         self.n_eq = int(self.free.size)
         self._build_pattern()
         self.length_scale = self._length_scale()
+        self._all_dofs = np.concatenate([gd.ravel() for gd in self.group_dofs]) if self.group_dofs \
+            else np.zeros(0, dtype=np.int64)
         self.merged = [u for u in self.units if isinstance(u, MergedUnit)]
 
     def check_loads(self) -> None:
@@ -89,6 +91,8 @@ class Assembler:
             self._entry_masks.append(mask)
             rows.append(r[mask])
             cols.append(c[mask])
+        #: flat positions of the kept entries of each group's tangent (None: all of them)
+        self._entry_take = [None if m.all() else np.flatnonzero(m.ravel()) for m in self._entry_masks]
         rows = np.concatenate(rows) if rows else np.zeros(0, dtype=np.int64)
         cols = np.concatenate(cols) if cols else np.zeros(0, dtype=np.int64)
         keys = rows * max(self.n_eq, 1) + cols
@@ -100,14 +104,15 @@ class Assembler:
 
     def internal(self, evaluations) -> np.ndarray:
         """Full-length internal force vector from the groups' evaluations."""
-        f = np.zeros(self.n_full)
-        for gd, ev in zip(self.group_dofs, evaluations):
-            f += np.bincount(gd.ravel(), weights=ev.force.ravel(), minlength=self.n_full)
-        return f
+        if not evaluations:
+            return np.zeros(self.n_full)
+        forces = np.concatenate([ev.force.reshape(-1) for ev in evaluations])
+        return np.bincount(self._all_dofs, weights=forces, minlength=self.n_full)
 
     def tangent(self, evaluations) -> sp.csr_matrix:
         """Free-free tangent matrix (CSR) from the groups' evaluations."""
-        vals = [ev.tangent[mask] for ev, mask in zip(evaluations, self._entry_masks)]
+        vals = [ev.tangent.reshape(-1) if take is None else ev.tangent.reshape(-1)[take]
+                for ev, take in zip(evaluations, self._entry_take)]
         data = np.bincount(self._slot, weights=np.concatenate(vals) if vals else None,
                            minlength=self.nnz)
         return sp.csr_matrix((data, self._indices, self._indptr), shape=(self.n_eq, self.n_eq))

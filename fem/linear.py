@@ -103,7 +103,8 @@ class LinearSolver:
         self.asm = asm
         n = asm.n_eq
         indptr, indices = asm.pattern()
-        rows = np.repeat(np.arange(n), np.diff(indptr))
+        rows = np.repeat(np.arange(n, dtype=np.int64), np.diff(indptr))
+        indices = indices.astype(np.int64)
         pattern = sp.csr_matrix((np.ones(indices.size), indices, indptr), shape=(n, n))
         self.transpose_slot = _transpose_slots(rows, indices, n)
         self.perm = reverse_cuthill_mckee(pattern, symmetric_mode=True).astype(np.int64) if n else \
@@ -181,6 +182,7 @@ class LinearSolver:
 
 def _transpose_slots(rows: np.ndarray, cols: np.ndarray, n: int) -> np.ndarray:
     """For each stored entry (i, j) of a structurally symmetric CSR pattern, the slot of (j, i)."""
+    rows, cols = rows.astype(np.int64), cols.astype(np.int64)
     keys = rows * max(n, 1) + cols
     order = np.argsort(keys)
     t_keys = cols * max(n, 1) + rows
