@@ -19,6 +19,7 @@ import scipy.sparse.linalg as spla
 from scipy.linalg import lapack
 from scipy.sparse.csgraph import reverse_cuthill_mckee
 
+from .blas_threads import one_thread
 from .errors import ModelError
 from .group import DOF_NAMES
 
@@ -74,7 +75,8 @@ class _Banded:
 
     def solve(self, r: np.ndarray) -> np.ndarray:
         t0 = time.perf_counter()
-        x, info = lapack.dpbtrs(self.chol, r[self.perm], lower=0)
+        with one_thread():
+            x, info = lapack.dpbtrs(self.chol, r[self.perm], lower=0)
         out = np.empty_like(x)
         out[self.perm] = x
         TIMINGS.linear_algebra += time.perf_counter() - t0
@@ -144,7 +146,8 @@ class LinearSolver:
         n, u = k.shape[0], self.bandwidth
         ab = np.bincount(self._band_slot, weights=data * self._band_weight,
                          minlength=(u + 1) * n).reshape(u + 1, n)
-        chol, info = lapack.dpbtrf(ab, lower=0)
+        with one_thread():
+            chol, info = lapack.dpbtrf(ab, lower=0)
         if info != 0:
             return None   # not positive definite: SuperLU decides (and names a mechanism)
         if check_pivots:
