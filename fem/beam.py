@@ -227,11 +227,13 @@ class BeamGroup(ElementGroup):
         (``tangent="difference"``: the one-sided difference tangent, a test oracle)."""
         u1, u2, r1, r2 = self._state(disp, rot)
         kin: dict | None = {} if tangent is True else None
-        f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0, kin)
+        f, fl, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0, kin)
+        results = lambda: _end_forces(fl)  # noqa: E731
         if not tangent:
-            return Evaluation(f, None)
+            return Evaluation(f, None, results)
         if kin is not None:
-            return Evaluation(f, corotational_tangent(kin, self.k_local, kin["inv_t1"], kin["inv_t2"]))
+            return Evaluation(f, corotational_tangent(kin, self.k_local, kin["inv_t1"], kin["inv_t2"]),
+                              results)
 
         def force_fn(a1, a2, b1, b2, reps):
             return self._core(a1, a2, b1, b2, np.tile(self.frame0, (reps, 1, 1)), np.tile(self.L0, reps),
@@ -240,7 +242,7 @@ class BeamGroup(ElementGroup):
         k = central_difference_tangent(force_fn, u1, u2, r1, r2, steps_t=FORWARD_STEP * self.L0,
                                        steps_r=np.full(self.size, FORWARD_STEP),
                                        translation_invariant=True, base=f)
-        return Evaluation(f, k)
+        return Evaluation(f, k, results)
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:
         if not np.any(self.weight):
@@ -254,6 +256,9 @@ class BeamGroup(ElementGroup):
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
         u1, u2, r1, r2 = self._state(disp, rot)
         _, fl, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
-        # section forces, N positive in tension: end 1 = -f_local[0:6], end 2 = +f_local[6:12]
-        ends = np.stack([-fl[:, 0:6], fl[:, 6:12]], axis=1)
-        return {"end_forces": ends}
+        return _end_forces(fl)
+
+
+def _end_forces(fl: np.ndarray) -> dict[str, np.ndarray]:
+    """Section forces, N positive in tension: end 1 = -f_local[0:6], end 2 = +f_local[6:12]."""
+    return {"end_forces": np.stack([-fl[:, 0:6], fl[:, 6:12]], axis=1)}

@@ -10,13 +10,14 @@ found (another BLAS, another platform) it does nothing.
 from __future__ import annotations
 
 import ctypes
+import importlib
 from contextlib import contextmanager
 from typing import Iterator
 
 
 def _openblas_controls():
     """(get, set) of the OpenBLAS scipy.linalg loaded, or None."""
-    import scipy.linalg  # noqa: F401  (loads the library)
+    importlib.import_module("scipy.linalg")  # loads the library
     try:
         with open("/proc/self/maps") as maps:
             paths = {line.split()[-1] for line in maps if "openblas" in line.lower()}

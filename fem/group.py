@@ -2,6 +2,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Callable
 
 import numpy as np
 
@@ -19,10 +20,15 @@ class Evaluation:
         with a minus sign: residual = external - internal).
     tangent
         (ne, nde, nde) tangent matrices, or None when not requested.
+    results
+        Builds the group's named result arrays at this state (as
+        :meth:`ElementGroup.results`) from what the force evaluation computed
+        anyway; None: the group recomputes them in ``results``.
     """
 
     force: np.ndarray
     tangent: np.ndarray | None
+    results: Callable[[], dict[str, np.ndarray]] | None = None
 
 
 class ElementGroup:
@@ -129,6 +135,12 @@ class MergedUnit:
 
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
         return self.proxy.evaluate(x, rot, disp, tangent)
+
+    def split_results(self, results: dict[str, np.ndarray]) -> list[dict[str, np.ndarray]]:
+        """The batch's result arrays cut into those of each member group."""
+        offsets = np.cumsum(self.sizes)[:-1]
+        cut = {key: np.split(val, offsets) for key, val in results.items()}
+        return [{key: parts[i] for key, parts in cut.items()} for i in range(len(self.groups))]
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:
         parts = [g.external(gravity) for g in self.groups]

@@ -142,11 +142,12 @@ class LinkGroup(ElementGroup):
         """Forces, and with ``tangent`` the closed-form tangent (``"difference"``: the
         one-sided difference tangent, kept as a test oracle)."""
         u1, u2, r1, r2 = self._state(disp, rot)
-        f = self._forces(u1, u2, r1, r2, *self._consts())[0]
+        f, slip, phi, f_loc, m_loc = self._forces(u1, u2, r1, r2, *self._consts())
+        results = lambda: {"slip": slip, "rotation": phi, "force": f_loc, "moment": m_loc}  # noqa: E731
         if not tangent:
-            return Evaluation(f, None)
+            return Evaluation(f, None, results)
         if tangent is True:
-            return Evaluation(f, self._tangent(u1, u2, r1, r2, f))
+            return Evaluation(f, self._tangent(u1, u2, r1, r2, f), results)
 
         def force_fn(a, b, c, d, reps):
             return self._forces(a, b, c, d, *self._consts(reps))[0]
@@ -155,7 +156,7 @@ class LinkGroup(ElementGroup):
                                        steps_t=FORWARD_STEP * self.length_scale,
                                        steps_r=np.full(self.size, FORWARD_STEP),
                                        translation_invariant=True, base=f)
-        return Evaluation(f, k)
+        return Evaluation(f, k, results)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
         u1, u2, r1, r2 = self._state(disp, rot)

@@ -8,7 +8,7 @@ import numpy as np
 
 from .assembly import Assembler
 from .errors import ConvergenceError, ImbalanceSite, ModelError
-from .group import DOF_NAMES
+from .group import DOF_NAMES, MergedUnit
 from .linear import TIMINGS, LinearSolver, Timings
 from .newton import Counters, Fail, Increment, Kept
 from .rotation import expmap
@@ -190,8 +190,8 @@ def _set_prescribed(state: State, fixed: np.ndarray, jump: np.ndarray) -> None:
 
 
 def _fill_results(ctx: _Context, state: State, evals, r_full: np.ndarray) -> None:
-    """Reactions and residual now (from the final evaluation); group results on first use,
-    from copies of the groups' parameters (later edits of the model do not reach them)."""
+    """Reactions and residual now, group results on first use: both from the final
+    evaluation of the state (later edits of the model do not reach them)."""
     asm = ctx.asm
     reactions = np.zeros(asm.n_full)
     reactions[asm.fixed_mask] = -r_full[asm.fixed_mask]
@@ -200,14 +200,26 @@ def _fill_results(ctx: _Context, state: State, evals, r_full: np.ndarray) -> Non
             reactions -= np.bincount(gd.ravel(), weights=ev.force.ravel(), minlength=asm.n_full)
     resid = np.zeros(asm.n_full)
     resid[asm.free] = r_full[asm.free]
-    groups = [g.snapshot() for g in ctx.model.groups]
-    coords, translation, rotation = ctx.coords, state.translation.copy(), state.rotation.copy()
+    units = list(zip(asm.units, evals))
+    snapshots = {id(u): [g.snapshot() for g in (u.groups if isinstance(u, MergedUnit) else [u])]
+                 for u, ev in units if ev.results is None}
+    translation, rotation = state.translation.copy(), state.rotation.copy()
 
     def group_results() -> dict:
-        x = coords + translation
-        disp = np.zeros((x.shape[0], 6))
-        disp[:, :3] = translation
-        return {g.name: g.results(x, rotation, disp) for g in groups}
+        out = {}
+        for unit, ev in units:
+            members = unit.groups if isinstance(unit, MergedUnit) else [unit]
+            if ev.results is None:   # a group that does not hand its results over
+                x = ctx.coords + translation
+                disp = np.zeros((x.shape[0], 6))
+                disp[:, :3] = translation
+                parts = [g.results(x, rotation, disp) for g in snapshots[id(unit)]]
+            elif isinstance(unit, MergedUnit):
+                parts = unit.split_results(ev.results())
+            else:
+                parts = [ev.results()]
+            out.update({g.name: part for g, part in zip(members, parts)})
+        return out
 
     state._results = {"reactions": reactions.reshape(-1, 6), "residual": resid.reshape(-1, 6)}
     state._pending_groups = group_results
