@@ -24,6 +24,10 @@ import numpy as np
 from .rotation import cross3, skew
 
 
+#: local deformations that carry stiffness: end rotations and the elongation
+_CARRYING = np.array([3, 4, 5, 6, 9, 10, 11])
+
+
 def _eta_mu(theta: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """eta(t) = (1 - (t/2) cot(t/2)) / t^2 and mu = (d eta / d t) / t, with t = |theta|.
 
@@ -92,9 +96,10 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     sel2 = np.concatenate([zero, zero, zero, np.transpose(rr, (0, 2, 1))], axis=2)
     g1, g2 = sel1 - wr, sel2 - wr
     b1, b2 = inv_t1 @ g1, inv_t2 @ g2
-    b = np.zeros((n, 12, 12))
-    b[:, 3:6], b[:, 6], b[:, 9:12] = b1, d_ln, b2
-    k = np.transpose(b, (0, 2, 1)) @ (k_local @ b)
+    # only theta_1, the elongation and theta_2 carry stiffness: a 7-row B
+    b7 = np.concatenate([b1, d_ln[:, None, :], b2], axis=1)
+    k7 = k_local[:, _CARRYING][:, :, _CARRYING]
+    k = np.transpose(b7, (0, 2, 1)) @ (k7 @ b7)
     # axial force turning with the chord
     n_ax = kin["n_ax"][:, None, None]
     k[:, 0:3] -= n_ax * d_e1
@@ -110,18 +115,19 @@ def corotational_tangent(kin: dict, k_local: np.ndarray, inv_t1: np.ndarray,
     v = y1 + y2
     d_e2_l = d_e2 / ln[:, None, None] - e2[:, :, None] * d_ln[:, None, :] / ln[:, None, None] ** 2
     d_e3_l = d_e3 / ln[:, None, None] - e3[:, :, None] * d_ln[:, None, :] / ln[:, None, None] ** 2
-    d_wy = np.zeros((n, 12, 12))
-    d_wy[:, 0:3], d_wy[:, 6:9] = d_e3_l, -d_e3_l
-    d_wz = np.zeros((n, 12, 12))
-    d_wz[:, 0:3], d_wz[:, 6:9] = -d_e2_l, d_e2_l
+    vx, vy, vz = v[:, 0, None, None], v[:, 1, None, None], v[:, 2, None, None]
     ratio = ql1 / ql2
     d_ratio = d_ql1 / ql2[:, None] - (ql1 / ql2**2)[:, None] * d_ql2
-    d_wx = ratio[:, None, None] * d_wy + wr[:, 1, :, None] * d_ratio[:, None, :]
+    # sum over the rows x, y, z of v_k dW_k: chord terms at the translations, the ratio
+    # ql1 / ql2 of row x varying, and row x's rotation blocks
+    chord = (vy + vx * ratio[:, None, None]) * d_e3_l - vz * d_e2_l
+    k[:, 0:3] -= chord
+    k[:, 6:9] += chord
+    k -= vx * wr[:, 1, :, None] * d_ratio[:, None, :]
     for node, qi, d_qi in ((1, q1, d_q1), (3, q2, d_q2)):
         c = cross3(qi, e3)
         d_c = -skew(e3) @ d_qi + skew(qi) @ d_e3
         blk = d_c / (2.0 * ql2[:, None, None]) - c[:, :, None] * d_ql2[:, None, :] / (
             2.0 * ql2[:, None, None] ** 2)
-        d_wx[:, 3 * node:3 * node + 3] += blk
-    k -= (v[:, 0, None, None] * d_wx + v[:, 1, None, None] * d_wy + v[:, 2, None, None] * d_wz)
+        k[:, 3 * node:3 * node + 3] -= vx * blk
     return k
