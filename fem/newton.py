@@ -83,6 +83,11 @@ def norm(a: np.ndarray) -> float:
     return float(np.sqrt(np.einsum("i,i->", flat, flat)))
 
 
+def _dot(a: np.ndarray, b: np.ndarray) -> float:
+    """a . b without BLAS (see :func:`norm`)."""
+    return float(np.einsum("i,i->", a, b))
+
+
 def apply_increment(state, delta_full: np.ndarray, alpha: float):
     """A copy of ``state`` moved by ``alpha`` times the full-length correction."""
     new = state.copy()
@@ -141,7 +146,8 @@ class Increment:
     def step(self, state, delta_full, r_full, rn0, history):
         """Full step, shortened only when both the residual and the energy rise."""
         free = self.asm.free
-        s0 = float(delta_full[free] @ r_full[free])
+        d_free = delta_full[free]
+        s0 = _dot(d_free, r_full[free])
         best = None
         alpha = 1.0
         for _ in range(6 if self.opts.line_search else 1):
@@ -154,7 +160,7 @@ class Increment:
             if not np.isfinite(rn):
                 alpha *= 0.5
                 continue
-            s1 = float(delta_full[free] @ r_new[free]) / alpha
+            s1 = _dot(d_free, r_new[free]) / alpha
             energy_falls = s0 > 0.0 and s1 > -s0
             # no energy to judge by (an indefinite tangent): keep the step unless stalled
             no_energy_but_moving = s0 <= 0.0 and not _stalled(history)
