@@ -2,14 +2,15 @@
 
 Work is spent only where it changes the answer:
 
-- Factorisations are kept (modified Newton). A kept factorisation makes the
-  next correction when it is predicted to finish the increment: REUSE_SAFETY
+- Factorisations are kept (modified Newton). Refresh rule: a factorisation
+  made in this increment makes the next correction too when REUSE_SAFETY
   times its last residual ratio times the current residual meets the force
-  test. At the start of an increment the last factorisation (of this or an
-  earlier solve of the model) is tried for one correction; a step with a kept
-  factorisation whose residual ratio exceeds REFRESH_RATIO refreshes the
-  tangent, and one that raises the residual is undone first. Otherwise the
-  tangent is refreshed and factorised at the current iterate.
+  test (it is predicted to finish the increment); a reused step whose ratio
+  exceeds REFRESH_RATIO ends the reuse. At the start of an increment the last
+  factorisation (of this or an earlier solve of the model; never one from a
+  failed try) makes the first correction, and the tangent is refreshed after
+  it. A step with a kept factorisation that raises the residual is undone.
+  Every other correction refreshes the tangent at the current iterate.
 - Convergence: the force test ``|r| <= max(force_tol * max(|f_ext|, |f_int|),
   floor)`` (full-length vectors) with the round-off floor ``FLOOR_FACTOR * eps *
   |diag(K) * s|`` (s: 1 rad for rotations, the longest element chord at the
@@ -120,14 +121,16 @@ class Increment:
         ref = max(self.f_ext_norm, norm(f_int), 1e-30)
         return evals, r_full, norm(r_full[self.asm.free]), ref
 
-    def refresh(self, state, history, r_full) -> None:
-        """Tangent at ``state``, factorised and kept."""
+    def refresh(self, state, history, r_full, at_start: bool) -> None:
+        """Tangent at ``state``, factorised and kept. The first factorisation of a solve,
+        when made at the start of an increment, checks its pivots for a mechanism."""
         k = self.asm.tangent(self.ctx.evaluate(state, "difference" if self.opts.difference_tangents
                                                else True))
+        check = self.check_pivots and at_start
         try:
-            factor = self.ctx.linear.factorise(k, self.check_pivots)
+            factor = self.ctx.linear.factorise(k, check)
         except ModelError as err:
-            if self.check_pivots or not hasattr(err, "where"):
+            if check or not hasattr(err, "where"):
                 raise
             # the model had stiffness at the start; an iterate that lost it (a spring past
             # its capacity, a gap opened) is a convergence failure, not bad input
@@ -205,7 +208,7 @@ class Increment:
                 or (fresh_in_increment and REUSE_SAFETY * kept.rate * rn <= target))
             reuse = reuse and opts.reuse_factorisation
             if not reuse:
-                self.refresh(state, history, r_full)
+                self.refresh(state, history, r_full, it == 0)
                 fresh_in_increment, delta_full = True, None
             tried_carried = True
             if delta_full is None:
