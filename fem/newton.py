@@ -29,7 +29,7 @@ Work is spent only where it changes the answer:
 """
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -68,7 +68,6 @@ class Kept:
     factor: object = None
     rate: float = 1.0        # residual ratio of the last step made with it
     floor: float = 0.0       # round-off floor of the residual from its tangent's diagonal
-    extra: dict = field(default_factory=dict)
 
 
 class Fail(Exception):
