@@ -2,7 +2,7 @@
 
 The internal force is f = B_a^T N + sum_i G_i^T y_i with the rigid-frame
 transformation of Battini & Pacoste (2002, "Co-rotational beam elements with
-warping effects in instability problems", CMAME 191: G_i = R_r^T E_i - W_r,
+warping effects in instability problems", CMAME 191, cited from memory: G_i = R_r^T E_i - W_r,
 local rotations theta_i = log(R_r^T R_i R_0), B_i = T_s^-1(theta_i) G_i,
 y_i = T_s^-T(theta_i) m_i). Its exact derivative is written here term by term
 (product rule), all elements at once:

@@ -3,7 +3,8 @@
 Reference: the definition of the derivative, evaluated by central differences of the
 element force (error O(h^2) ~ 1e-10 relative with h = 1e-5, far below the 1e-6
 tolerance) in fem.group.central_difference_tangent. The closed forms follow Battini &
-Pacoste (2002), CMAME 191, for the corotational frame and the rotation-vector maps.
+Pacoste (2002), CMAME 191 (cited from memory), for the corotational frame and the
+rotation-vector maps.
 """
 from __future__ import annotations
 
