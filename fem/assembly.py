@@ -5,7 +5,7 @@ import numpy as np
 import scipy.sparse as sp
 
 from .errors import ModelError
-from .group import DOF_NAMES, evaluation_units
+from .group import DOF_NAMES, MergedUnit, evaluation_units
 
 
 class Assembler:
@@ -29,15 +29,12 @@ class Assembler:
             gd = g.global_dofs()
             self.group_dofs.append(gd)
             stiff[gd[g.stiffened()]] = True
-        for key, val in model.loads.items():
-            if not stiff[key] and val != 0.0:
-                raise ModelError(f"load on node {key // 6} {DOF_NAMES[key % 6]}, which no element "
-                                 f"or spring resists")
+        self.active = stiff
+        self.check_loads()
         for key, val in model.fixed.items():
             if not stiff[key] and val != 0.0:
                 raise ModelError(f"prescribed value on node {key // 6} {DOF_NAMES[key % 6]}, which no "
                                  f"element or spring connects")
-        self.active = stiff
         fixed = np.zeros(self.n_full, dtype=bool)
         fixed[list(model.fixed)] = True
         self.fixed_mask = fixed & stiff
@@ -47,6 +44,42 @@ class Assembler:
         self.eq[self.free] = np.arange(self.free.size)
         self.n_eq = int(self.free.size)
         self._build_pattern()
+        self.length_scale = self._length_scale()
+        self._all_dofs = np.concatenate([gd.ravel() for gd in self.group_dofs]) if self.group_dofs \
+            else np.zeros(0, dtype=np.int64)
+        self.merged = [u for u in self.units if isinstance(u, MergedUnit)]
+
+    def check_loads(self) -> None:
+        """Raise for a nodal load on a DOF that nothing resists (loads may change between solves)."""
+        for key, val in self.model.loads.items():
+            if not self.active[key] and val != 0.0:
+                raise ModelError(f"load on node {key // 6} {DOF_NAMES[key % 6]}, which no element "
+                                 f"or spring resists")
+
+    def refresh(self) -> None:
+        """Once per solve: batches regather member arrays that were replaced."""
+        for unit in self.merged:
+            unit.refresh()
+
+    def pattern(self) -> tuple[np.ndarray, np.ndarray]:
+        """(indptr, indices) of the free-free tangent's CSR pattern."""
+        return self._indptr, self._indices
+
+    def _length_scale(self) -> np.ndarray:
+        """Per free equation: 1 for a rotation, the longest element chord at the node for a
+        translation (1 m where no element with a chord meets it)."""
+        node_len = np.zeros(self.model.n_nodes)
+        for g in self.model.groups:
+            chord = getattr(g, "chord0", None)
+            if chord is None or g.conn.shape[1] != 2:
+                continue
+            length = np.linalg.norm(chord, axis=1)
+            np.maximum.at(node_len, g.conn[:, 0], length)
+            np.maximum.at(node_len, g.conn[:, 1], length)
+        node_len[node_len == 0.0] = 1.0
+        per_dof = np.repeat(node_len, 6)
+        per_dof[np.arange(self.n_full) % 6 >= 3] = 1.0
+        return per_dof[self.free]
 
     def _build_pattern(self) -> None:
         rows, cols, self._entry_masks = [], [], []
@@ -58,6 +91,8 @@ class Assembler:
             self._entry_masks.append(mask)
             rows.append(r[mask])
             cols.append(c[mask])
+        #: flat positions of the kept entries of each group's tangent (None: all of them)
+        self._entry_take = [None if m.all() else np.flatnonzero(m.ravel()) for m in self._entry_masks]
         rows = np.concatenate(rows) if rows else np.zeros(0, dtype=np.int64)
         cols = np.concatenate(cols) if cols else np.zeros(0, dtype=np.int64)
         keys = rows * max(self.n_eq, 1) + cols
@@ -69,14 +104,15 @@ class Assembler:
 
     def internal(self, evaluations) -> np.ndarray:
         """Full-length internal force vector from the groups' evaluations."""
-        f = np.zeros(self.n_full)
-        for gd, ev in zip(self.group_dofs, evaluations):
-            f += np.bincount(gd.ravel(), weights=ev.force.ravel(), minlength=self.n_full)
-        return f
+        if not evaluations:
+            return np.zeros(self.n_full)
+        forces = np.concatenate([ev.force.reshape(-1) for ev in evaluations])
+        return np.bincount(self._all_dofs, weights=forces, minlength=self.n_full)
 
     def tangent(self, evaluations) -> sp.csr_matrix:
         """Free-free tangent matrix (CSR) from the groups' evaluations."""
-        vals = [ev.tangent[mask] for ev, mask in zip(evaluations, self._entry_masks)]
+        vals = [ev.tangent.reshape(-1) if take is None else ev.tangent.reshape(-1)[take]
+                for ev, take in zip(evaluations, self._entry_take)]
         data = np.bincount(self._slot, weights=np.concatenate(vals) if vals else None,
                            minlength=self.nnz)
         return sp.csr_matrix((data, self._indices, self._indptr), shape=(self.n_eq, self.n_eq))

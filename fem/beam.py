@@ -4,7 +4,8 @@ The element's rigid motion is followed by a frame attached to the chord and
 to the mean of the nodal triads; in that frame the beam is a linear
 Timoshenko element (Przemieniecki's stiffness). The internal force vector is
 exact for this kinematics (Battini-Pacoste style transformation); the tangent
-is its central-difference derivative, evaluated for all elements at once.
+is its closed-form derivative (:mod:`fem.beam_tangent`), evaluated for all
+elements at once, with the difference tangent kept as a test oracle.
 """
 from __future__ import annotations
 
@@ -15,6 +16,7 @@ import numpy as np
 from .checks import as_array, positive
 from .errors import ModelError
 from .group import FORWARD_STEP, ElementGroup, Evaluation, all_dofs, central_difference_tangent
+from .beam_tangent import corotational_tangent
 from .rotation import cross3, logmap_moderate, tangent_inverse
 
 
@@ -153,63 +155,86 @@ class BeamGroup(ElementGroup):
 
     # -- kinematics ---------------------------------------------------
     @staticmethod
-    def _core(u1, u2, r1, r2, frame0, L0, k_local, chord0):
+    def _core(u1, u2, r1, r2, frame0, L0, k_local, chord0, keep: dict | None = None):
         """Forces (n, 12) and local section quantities for a batch of elements.
 
         ``u1``, ``u2`` are the end displacements; the chord is the initial
         chord plus their difference and the elongation is formed without
         subtracting two nearly equal lengths, so stiff members keep a residual
-        near round-off of the load rather than of the coordinates.
+        near round-off of the load rather than of the coordinates. When
+        ``keep`` is a dict, the intermediate kinematic quantities the
+        closed-form tangent needs are stored in it.
         """
         du = u2 - u1
         d = chord0 + du
         ln = np.linalg.norm(d, axis=1)
         elong = (2.0 * np.einsum("ni,ni->n", chord0, du) + np.einsum("ni,ni->n", du, du)) / (ln + L0)
         e1 = d / ln[:, None]
-        t1 = r1 @ frame0
-        t2 = r2 @ frame0
-        q1, q2 = t1[:, :, 1], t2[:, :, 1]
+        t12 = np.stack([r1, r2]) @ frame0            # both end triads, (2, n, 3, 3)
+        q1, q2 = t12[0, :, :, 1], t12[1, :, :, 1]
         q = 0.5 * (q1 + q2)
         e3 = cross3(e1, q)
-        e3 /= np.linalg.norm(e3, axis=1)[:, None]
+        e3 /= np.sqrt(np.einsum("ni,ni->n", e3, e3))[:, None]
         e2 = cross3(e3, e1)
         rr = np.stack([e1, e2, e3], axis=2)
         rrt = np.transpose(rr, (0, 2, 1))
-        th1 = logmap_moderate(rrt @ t1)
-        th2 = logmap_moderate(rrt @ t2)
+        th = logmap_moderate(rrt @ t12)              # (2, n, 3) local end rotations
+        th1, th2 = th[0], th[1]
         dl = np.zeros((u1.shape[0], 12))
         dl[:, 3:6], dl[:, 6], dl[:, 9:12] = th1, elong, th2
         reps = u1.shape[0] // k_local.shape[0]  # a batch of stacked copies shares k_local
-        fl = np.einsum("nij,rnj->rni", k_local, dl.reshape(reps, -1, 12)).reshape(-1, 12)
-        n_ax, m1, m2 = fl[:, 6], fl[:, 3:6], fl[:, 9:12]
+        if reps == 1:
+            fl = (k_local @ dl[:, :, None])[:, :, 0]
+        else:
+            fl = np.einsum("nij,rnj->rni", k_local, dl.reshape(reps, -1, 12)).reshape(-1, 12)
+        n_ax = fl[:, 6]
+        m12 = np.stack([fl[:, 3:6], fl[:, 9:12]])    # (2, n, 3) end moments
         # spin of the rigid frame, local components, as rows over the 12 DOFs
         ql1 = np.einsum("ni,ni->n", q, e1)
         ql2 = np.einsum("ni,ni->n", q, e2)
         wr = np.zeros((u1.shape[0], 3, 12))
-        wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2 / ln[:, None], e2 / ln[:, None]
-        wr[:, 1, 0:3], wr[:, 1, 6:9] = e3 / ln[:, None], -e3 / ln[:, None]
+        e2l, e3l = e2 / ln[:, None], e3 / ln[:, None]
+        wr[:, 2, 0:3], wr[:, 2, 6:9] = -e2l, e2l
+        wr[:, 1, 0:3], wr[:, 1, 6:9] = e3l, -e3l
         wr[:, 0, :] = (ql1 / ql2)[:, None] * wr[:, 1, :]
-        wr[:, 0, 3:6] += cross3(q1, e3) / (2.0 * ql2[:, None])
-        wr[:, 0, 9:12] += cross3(q2, e3) / (2.0 * ql2[:, None])
+        c12 = cross3(t12[:, :, :, 1], e3[None]) / (2.0 * ql2[None, :, None])
+        wr[:, 0, 3:6] += c12[0]
+        wr[:, 0, 9:12] += c12[1]
         f = np.zeros((u1.shape[0], 12))
         f[:, 0:3], f[:, 6:9] = -n_ax[:, None] * e1, n_ax[:, None] * e1
         # f += B_i^T m_i with B_i = T^-1(th_i) (V_i - W_r): first y_i = T^-T m_i
-        y1 = np.einsum("nji,nj->ni", tangent_inverse(th1), m1)
-        y2 = np.einsum("nji,nj->ni", tangent_inverse(th2), m2)
-        f -= np.einsum("nij,ni->nj", wr, y1 + y2)
-        f[:, 3:6] += np.einsum("nij,nj->ni", rr, y1)
-        f[:, 9:12] += np.einsum("nij,nj->ni", rr, y2)
+        inv_t = tangent_inverse(th)                  # (2, n, 3, 3)
+        y12 = (np.swapaxes(inv_t, -1, -2) @ m12[..., None])[..., 0]
+        y1, y2 = y12[0], y12[1]
+        m1, m2 = m12[0], m12[1]
+        f -= ((y1 + y2)[:, None, :] @ wr)[:, 0]
+        ry = (rr[None] @ y12[..., None])[..., 0]
+        f[:, 3:6] += ry[0]
+        f[:, 9:12] += ry[1]
+        inv_t1, inv_t2 = inv_t[0], inv_t[1]
+        if keep is not None:
+            keep.update(e1=e1, e2=e2, e3=e3, rr=rr, ln=ln, q=q, q1=q1, q2=q2, ql1=ql1, ql2=ql2,
+                        wr=wr, th1=th1, th2=th2, m1=m1, m2=m2, n_ax=n_ax, y1=y1, y2=y2,
+                        inv_t1=inv_t1, inv_t2=inv_t2)
         return f, fl, dl
 
     def _state(self, disp, rot):
         c = self.conn
         return disp[c[:, 0], :3], disp[c[:, 1], :3], rot[c[:, 0]], rot[c[:, 1]]
 
-    def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
+    def evaluate(self, x, rot, disp, tangent: bool | str = True) -> Evaluation:
+        """Forces, and with ``tangent`` the closed-form consistent tangent
+        (``tangent="difference"``: the one-sided difference tangent, a test oracle)."""
         u1, u2, r1, r2 = self._state(disp, rot)
-        f, _, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
+        kin: dict | None = {} if tangent is True else None
+        f, fl, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0, kin)
+        results = lambda: _end_forces(fl)  # noqa: E731
         if not tangent:
-            return Evaluation(f, None)
+            return Evaluation(f, None, results)
+        if kin is not None:
+            return Evaluation(f, corotational_tangent(kin, self.k_local, kin["inv_t1"], kin["inv_t2"]),
+                              results)
+
         def force_fn(a1, a2, b1, b2, reps):
             return self._core(a1, a2, b1, b2, np.tile(self.frame0, (reps, 1, 1)), np.tile(self.L0, reps),
                               self.k_local, np.tile(self.chord0, (reps, 1)))[0]
@@ -217,7 +242,7 @@ class BeamGroup(ElementGroup):
         k = central_difference_tangent(force_fn, u1, u2, r1, r2, steps_t=FORWARD_STEP * self.L0,
                                        steps_r=np.full(self.size, FORWARD_STEP),
                                        translation_invariant=True, base=f)
-        return Evaluation(f, k)
+        return Evaluation(f, k, results)
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:
         if not np.any(self.weight):
@@ -231,6 +256,9 @@ class BeamGroup(ElementGroup):
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
         u1, u2, r1, r2 = self._state(disp, rot)
         _, fl, _ = self._core(u1, u2, r1, r2, self.frame0, self.L0, self.k_local, self.chord0)
-        # section forces, N positive in tension: end 1 = -f_local[0:6], end 2 = +f_local[6:12]
-        ends = np.stack([-fl[:, 0:6], fl[:, 6:12]], axis=1)
-        return {"end_forces": ends}
+        return _end_forces(fl)
+
+
+def _end_forces(fl: np.ndarray) -> dict[str, np.ndarray]:
+    """Section forces, N positive in tension: end 1 = -f_local[0:6], end 2 = +f_local[6:12]."""
+    return {"end_forces": np.stack([-fl[:, 0:6], fl[:, 6:12]], axis=1)}

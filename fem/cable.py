@@ -79,8 +79,9 @@ class CableGroup(ElementGroup):
         lf = self.free_length()
         t = np.maximum(self.EA * (length - lf) / lf, 0.0)
         f = np.concatenate([-t[:, None] * e, t[:, None] * e], axis=1)
+        results = lambda: {"tension": t, "length": length, "slack": t <= 0.0}  # noqa: E731
         if not tangent:
-            return Evaluation(f, None)
+            return Evaluation(f, None, results)
         k_reg = SLACK_REGULARISATION * self.EA / lf
         k_ax = np.where(length > lf, self.EA / lf, k_reg)
         k_tr = np.maximum(t, k_reg * length) / length
@@ -89,7 +90,7 @@ class CableGroup(ElementGroup):
         k = np.empty((self.size, 6, 6))
         k[:, :3, :3], k[:, 3:, 3:] = k3, k3
         k[:, :3, 3:], k[:, 3:, :3] = -k3, -k3
-        return Evaluation(f, k)
+        return Evaluation(f, k, results)
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:
         if not np.any(self.weight):

@@ -2,6 +2,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Callable
 
 import numpy as np
 
@@ -19,10 +20,15 @@ class Evaluation:
         with a minus sign: residual = external - internal).
     tangent
         (ne, nde, nde) tangent matrices, or None when not requested.
+    results
+        Builds the group's named result arrays at this state (as
+        :meth:`ElementGroup.results`) from what the force evaluation computed
+        anyway; None: the group recomputes them in ``results``.
     """
 
     force: np.ndarray
     tangent: np.ndarray | None
+    results: Callable[[], dict[str, np.ndarray]] | None = None
 
 
 class ElementGroup:
@@ -72,31 +78,54 @@ class ElementGroup:
 
     @classmethod
     def merged(cls, groups: list["ElementGroup"]) -> "ElementGroup":
-        """One group of this class holding the elements of ``groups`` (for evaluation only).
-
-        The arrays are gathered afresh on every call, so edits to the member
-        groups between solves are seen.
-        """
+        """One group of this class holding the elements of ``groups`` (for evaluation only)."""
         proxy = cls.__new__(cls)
         proxy.name = "+".join(g.name for g in groups)
         for f in cls.merge_fields:
             setattr(proxy, f, np.concatenate([getattr(g, f) for g in groups]))
         return proxy
 
+    def snapshot(self) -> "ElementGroup":
+        """A shallow copy whose per-element arrays are copies (results of a kept state
+        stay those of the parameters it was solved with)."""
+        twin = type(self).__new__(type(self))
+        twin.__dict__.update(self.__dict__)
+        for f in self.merge_fields:
+            setattr(twin, f, np.array(getattr(self, f)))
+        return twin
+
 
 class MergedUnit:
     """Several groups of one class evaluated as one batch (fewer, larger numpy calls).
 
-    Quacks like an ElementGroup for the assembler and the solver.
+    The batch's arrays are gathered once; each member group's ``merge_fields``
+    then become views into them, so in-place edits of a member (``g.L0[:] =
+    ...``) reach the batch without copying. :meth:`refresh` (once per solve)
+    regathers when a member's array was replaced by another object. Quacks like
+    an ElementGroup for the assembler and the solver.
     """
 
     def __init__(self, groups: list[ElementGroup]) -> None:
         self.groups = groups
         self.cls = type(groups[0])
         self.sizes = [g.size for g in groups]
+        self._bind()
 
-    def _proxy(self) -> ElementGroup:
-        return self.cls.merged(self.groups)
+    def _bind(self) -> None:
+        self.proxy = self.cls.merged(self.groups)
+        offsets = np.concatenate([[0], np.cumsum(self.sizes)])
+        for g, a, b in zip(self.groups, offsets[:-1], offsets[1:]):
+            for f in self.cls.merge_fields:
+                setattr(g, f, getattr(self.proxy, f)[a:b])
+        self._bound = [[getattr(g, f) for f in self.cls.merge_fields] for g in self.groups]
+
+    def refresh(self) -> None:
+        """Regather the batch if a member's array object was replaced since the last bind."""
+        for g, arrays in zip(self.groups, self._bound):
+            for f, arr in zip(self.cls.merge_fields, arrays):
+                if getattr(g, f) is not arr:
+                    self._bind()
+                    return
 
     def global_dofs(self) -> np.ndarray:
         return np.concatenate([g.global_dofs() for g in self.groups])
@@ -105,7 +134,13 @@ class MergedUnit:
         return np.concatenate([g.stiffened() for g in self.groups])
 
     def evaluate(self, x, rot, disp, tangent=True) -> Evaluation:
-        return self._proxy().evaluate(x, rot, disp, tangent)
+        return self.proxy.evaluate(x, rot, disp, tangent)
+
+    def split_results(self, results: dict[str, np.ndarray]) -> list[dict[str, np.ndarray]]:
+        """The batch's result arrays cut into those of each member group."""
+        offsets = np.cumsum(self.sizes)[:-1]
+        cut = {key: np.split(val, offsets) for key, val in results.items()}
+        return [{key: parts[i] for key, parts in cut.items()} for i in range(len(self.groups))]
 
     def external(self, gravity: np.ndarray) -> np.ndarray | None:
         parts = [g.external(gravity) for g in self.groups]

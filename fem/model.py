@@ -50,6 +50,14 @@ class Model:
         self._cache: np.ndarray | None = None
 
     # -- nodes ----------------------------------------------------------
+    def __getstate__(self) -> dict:
+        """Copies and pickles leave the solver's cached context behind (it holds
+        factorisations that cannot be pickled and belongs to this object); a copy
+        builds its own on its first solve."""
+        state = dict(self.__dict__)
+        state.pop("_solver_context", None)
+        return state
+
     def add_nodes(self, xyz) -> np.ndarray:
         """Add nodes at (n, 3) coordinates in metres; return their ids."""
         try:

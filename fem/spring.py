@@ -91,10 +91,11 @@ class SpringGroup(ElementGroup):
         u = self.displacement(rot, disp)
         active = self._active(u)
         f = np.where(active, self.law.force(u), 0.0)
+        results = lambda: {"displacement": u, "force": f}  # noqa: E731
         if not tangent:
-            return Evaluation(f[:, None], None)
+            return Evaluation(f[:, None], None, results)
         k = np.where(self._bearing(u), self.law.stiffness(u), 0.0)
-        return Evaluation(f[:, None], k[:, None, None])
+        return Evaluation(f[:, None], k[:, None, None], results)
 
     def results(self, x, rot, disp) -> dict[str, np.ndarray]:
         u = self.displacement(rot, disp)
