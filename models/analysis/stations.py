@@ -33,6 +33,8 @@ class StationResult:
     guy_tension: dict[str, float]        # guy group -> tension
     converged: bool = True
     message: str = ""
+    newton_iterations: int = 0           # Newton corrections of this station's solve
+    factorisations: int = 0              # tangent factorisations of this station's solve
 
 
 @dataclass
@@ -155,7 +157,10 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
                                                        for g in site.elements))
             break
         first = False
-        result.stations.append(record(system, state, line))
+        station = record(system, state, line)
+        station.newton_iterations = int(getattr(state, "newton_iterations", 0))
+        station.factorisations = int(getattr(state, "factorisations", 0))
+        result.stations.append(station)
         if keep_states:
             result.states.append(state)
         if progress is not None:
