@@ -12,8 +12,8 @@ import numpy as np
 
 from spanstay.fem import State, solve
 from spanstay.fem.errors import FemError
-from spanstay.models.parts.catenary import length_for_sag, length_for_tension
 from spanstay.models.common.errors import InputError
+from spanstay.models.scenario import line_shape
 from spanstay.models.scenario.spec import LineSpec, Scenario
 from spanstay.models.parts.system import BuiltLine, System, build_system, chain_between
 
@@ -21,22 +21,9 @@ from spanstay.models.parts.system import BuiltLine, System, build_system, chain_
 MATCH_TOL = 1e-4
 
 
-def rigid_support_length(line: LineSpec, span: float, drop: float) -> float:
-    """Unstressed length from the scenario, with rigid supports."""
-    rope = line.rope
-    if line.unstressed_length is not None:
-        return line.unstressed_length
-    if line.sag is not None:
-        return length_for_sag(span, drop, line.sag, rope.weight_per_length, rope.EA)
-    return length_for_tension(span, drop, line.tension, rope.weight_per_length, rope.EA)
-
-
 def line_geometry(scenario: Scenario, line: LineSpec) -> tuple[float, float]:
     """Horizontal span and drop (start above end, m) between attachment points."""
-    a, b = scenario.anchor(line.start), scenario.anchor(line.end)
-    span = float(np.hypot(b.x - a.x, b.y - a.y))
-    drop = (a.grade + line.start_height) - (b.grade + line.end_height)
-    return span, drop
+    return line_shape.span_and_drop(scenario, line)
 
 
 def measured_sag(system: System, state: State, line: BuiltLine) -> float:
@@ -101,12 +88,8 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
     fixed_lengths = lengths is not None
     if lengths is None:
         lengths = {}
-        for line in scenario.lines:
-            span, drop = line_geometry(scenario, line)
-            try:
-                lengths[line.name] = rigid_support_length(line, span, drop)
-            except ValueError as exc:
-                raise InputError(f"cannot hang the line as given: {exc}", f"line '{line.name}'") from None
+        for line in scenario.lines:  # InputError naming the line's sag, tension or length
+            lengths[line.name] = line_shape.rigid_support_length(scenario, line)
     system = build_system(scenario, lengths, rigid, temperature, slip)
     wires = _wire_targets(system)
     if fixed_lengths:
