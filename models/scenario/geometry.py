@@ -190,8 +190,8 @@ def _check_rider(scenario: Scenario) -> None:
         key = "rider.start_offset" if rider.start_offset >= chord else "rider.stop_offset"
         if offsets > chord - MIN_RIDE:
             raise InputError(f"start_offset and stop_offset together ({_m(offsets)}) "
-                             f"leave less than {_m(MIN_RIDE)} of ride on a line {_m(chord)} "
-                             "long", key)
+                             f"leave no ride on a line {_m(chord)} long (at least "
+                             f"{_m(MIN_RIDE)} must remain)", key)
     profile = scenario.ground.profile
     span = plan_span(start, end)
     if profile and (profile[0][0] > PROFILE_SLACK or profile[-1][0] < span - PROFILE_SLACK):

@@ -158,4 +158,4 @@ def test_tension_too_low_names_the_key(tmp_path):
 ])
 def test_offsets_must_leave_a_ride(tmp_path, old, new, key):
     out = _refused(_validate(tmp_path, _edit(old, new)), key)
-    assert "of ride" in out
+    assert "no ride" in out
