@@ -139,10 +139,20 @@ def _match_lines(scenario: Scenario, system: System, state: State) -> State:
         if abs(v_a - target) <= MATCH_TOL * abs(target):
             continue
         L_b = L_a * (1.0 + (1e-4 if line.sag is not None else -1e-5) * np.sign(target - v_a))
+        where = line_shape.line_key(scenario, line)
         for _ in range(12):
+            if not np.isfinite(L_b) or L_b <= 0.0:
+                raise InputError("the stated value cannot be met with these anchors deforming "
+                                 "under the line (form finding found no cable length that "
+                                 "gives it); give a value nearer the anchors' reach, or "
+                                 "stiffer anchors", where)
             group.L0[:] = L_b / group.L0.size
             bl.L0 = L_b
-            state = solve_installed(system, hang_between_ends(system, state, bl))
+            try:
+                state = solve_installed(system, hang_between_ends(system, state, bl))
+            except (InputError, ValueError) as exc:  # no equilibrium, or the chain did not hang
+                raise InputError(f"the line cannot be hung to the stated value with these "
+                                 f"anchors ({exc})", where) from None
             v_b = measure(system, state, bl)
             if abs(v_b - target) <= MATCH_TOL * abs(target):
                 break
