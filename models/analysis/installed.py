@@ -12,8 +12,8 @@ import numpy as np
 
 from spanstay.fem import State, solve
 from spanstay.fem.errors import FemError
-from spanstay.models.parts.catenary import length_for_sag, length_for_tension
 from spanstay.models.common.errors import InputError
+from spanstay.models.scenario import line_shape
 from spanstay.models.scenario.spec import LineSpec, Scenario
 from spanstay.models.parts.system import BuiltLine, System, build_system, chain_between
 
@@ -21,22 +21,9 @@ from spanstay.models.parts.system import BuiltLine, System, build_system, chain_
 MATCH_TOL = 1e-4
 
 
-def rigid_support_length(line: LineSpec, span: float, drop: float) -> float:
-    """Unstressed length from the scenario, with rigid supports."""
-    rope = line.rope
-    if line.unstressed_length is not None:
-        return line.unstressed_length
-    if line.sag is not None:
-        return length_for_sag(span, drop, line.sag, rope.weight_per_length, rope.EA)
-    return length_for_tension(span, drop, line.tension, rope.weight_per_length, rope.EA)
-
-
 def line_geometry(scenario: Scenario, line: LineSpec) -> tuple[float, float]:
     """Horizontal span and drop (start above end, m) between attachment points."""
-    a, b = scenario.anchor(line.start), scenario.anchor(line.end)
-    span = float(np.hypot(b.x - a.x, b.y - a.y))
-    drop = (a.grade + line.start_height) - (b.grade + line.end_height)
-    return span, drop
+    return line_shape.span_and_drop(scenario, line)
 
 
 def measured_sag(system: System, state: State, line: BuiltLine) -> float:
@@ -101,12 +88,8 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
     fixed_lengths = lengths is not None
     if lengths is None:
         lengths = {}
-        for line in scenario.lines:
-            span, drop = line_geometry(scenario, line)
-            try:
-                lengths[line.name] = rigid_support_length(line, span, drop)
-            except ValueError as exc:
-                raise InputError(f"cannot hang the line as given: {exc}", f"line '{line.name}'") from None
+        for line in scenario.lines:  # InputError naming the line's sag, tension or length
+            lengths[line.name] = line_shape.rigid_support_length(scenario, line)
     system = build_system(scenario, lengths, rigid, temperature, slip)
     wires = _wire_targets(system)
     if fixed_lengths:
@@ -156,10 +139,20 @@ def _match_lines(scenario: Scenario, system: System, state: State) -> State:
         if abs(v_a - target) <= MATCH_TOL * abs(target):
             continue
         L_b = L_a * (1.0 + (1e-4 if line.sag is not None else -1e-5) * np.sign(target - v_a))
+        where = line_shape.line_key(scenario, line)
         for _ in range(12):
+            if not np.isfinite(L_b) or L_b <= 0.0:
+                raise InputError("the stated value cannot be met with these anchors deforming "
+                                 "under the line (form finding found no cable length that "
+                                 "gives it); give a value nearer the anchors' reach, or "
+                                 "stiffer anchors", where)
             group.L0[:] = L_b / group.L0.size
             bl.L0 = L_b
-            state = solve_installed(system, hang_between_ends(system, state, bl))
+            try:
+                state = solve_installed(system, hang_between_ends(system, state, bl))
+            except (InputError, ValueError) as exc:  # no equilibrium, or the chain did not hang
+                raise InputError(f"the line cannot be hung to the stated value with these "
+                                 f"anchors ({exc})", where) from None
             v_b = measure(system, state, bl)
             if abs(v_b - target) <= MATCH_TOL * abs(target):
                 break

@@ -80,6 +80,28 @@ _OFFSET_NAMES = ("degF", "degC", "degree_Fahrenheit", "degree_Celsius", "fahrenh
 _OFFSET_RE = re.compile(r"(?<![\w])(" + "|".join(map(re.escape, _OFFSET_NAMES)) + r")(?![\w])")
 _NUMBER_UNIT_RE = re.compile(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
 _MIXED_RE = re.compile(r"^\s*(\d+)[- ]+(\d+)\s*/\s*(\d+)\s*(.*?)\s*$")
+# the one leading number of a quantity (a plain fraction "3/8" counts as one number)
+_LEADING_RE = re.compile(r"^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?(?:\s*/\s*\d+\.?\d*)?")
+_EXPONENT_RE = re.compile(r"(?:\*\*|\^)\s*\(?\s*[-+]?\s*\d+(?:\.\d+)?\s*\)?")
+_LOOSE_NUMBER_RE = re.compile(r"(?<![A-Za-z_\d.])\.?\d")
+
+
+def several_numbers(text: str) -> bool:
+    """True when ``text`` sets numbers side by side, which pint would multiply
+    (``"3 3 ft"`` = 9 ft, ``"3 ft 3 in"``). Mixed fractions (``"3-1/2 in"``,
+    ``"3 1/2 in"``), plain fractions (``"3/8 in"``), exponents (``"ft**2"``) and
+    numbers after an explicit operator (``"2.8 lbf / (100 ft)"``) are not."""
+    if _MIXED_RE.match(text):
+        return False
+    lead = _LEADING_RE.match(text)
+    if not lead:
+        return False
+    rest = _EXPONENT_RE.sub("", text[lead.end():])
+    for number in _LOOSE_NUMBER_RE.finditer(rest):
+        before = rest[:number.start()].rstrip()
+        if not before or before[-1] not in "*/(":
+            return True
+    return False
 
 
 def _delta(text: str) -> str:
@@ -183,6 +205,9 @@ def _convert_uncached(text: str, expected_dimension: str) -> float:
     example = f'"{dim.example}"'
     if not text.strip():
         raise _Bad(f"empty value; expected {dim.words}, e.g. {example}")
+    if several_numbers(text):
+        raise _Bad(f"{text!r} holds more than one number; write one number and its units, "
+                   f'e.g. {example} (mixed fractions such as "3-1/2 in" are fine)')
     import pint
 
     try:
@@ -223,26 +248,43 @@ def _convert_uncached(text: str, expected_dimension: str) -> float:
 
 
 def parse_ratio(value: Any, where: str | None = None) -> float:
-    """Read a plain number or a percentage (``0.8``, ``"80 %"``) as a float."""
+    """Read a finite plain number or a percentage (``0.8``, ``"80 %"``) as a float."""
     if isinstance(value, bool):
         raise InputError(f"expected a number, got {value!r}", where)
     if isinstance(value, (int, float)):
-        if not math.isfinite(value):
-            raise InputError(f"expected a finite number, got {value!r}", where)
-        return float(value)
+        return _finite(float(value) if _fits_float(value) else math.inf, value, where)
     if isinstance(value, str):
+        if several_numbers(value):
+            raise InputError(f"{value!r} holds more than one number; expected one plain number "
+                             "(e.g. 0.8 or \"80 %\")", where)
         try:
             quantity = registry().Quantity(value)
         except Exception:
             raise InputError(f"cannot read {value!r} as a number (e.g. 0.8 or \"80 %\")",
                              where) from None
         if hasattr(quantity, "dimensionless") and quantity.dimensionless:
-            return float(quantity.to("dimensionless").magnitude)
+            return _finite(float(quantity.to("dimensionless").magnitude), value, where)
         if isinstance(quantity, (int, float)):
-            return float(quantity)
+            return _finite(float(quantity), value, where)
         raise InputError(f"{value!r} has units; expected a plain number (e.g. 0.8 or "
                          f"\"80 %\")", where)
     raise InputError(f"expected a number, got {value!r}", where)
+
+
+def _fits_float(value: int | float) -> bool:
+    try:
+        float(value)
+    except OverflowError:
+        return False
+    return True
+
+
+def _finite(x: float, written: Any, where: str | None) -> float:
+    """``x`` if finite; nan, inf and overflowing values ("1e400") are refused."""
+    if not math.isfinite(x):
+        shown = repr(written) if len(repr(written)) <= 40 else repr(written)[:37] + "..."
+        raise InputError(f"expected a finite number, got {shown}", where)
+    return x
 
 
 # ---------------------------------------------------------------- display

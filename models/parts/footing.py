@@ -190,7 +190,15 @@ def embedment_depths(footing: Footing, profile: SoilProfile) -> np.ndarray:
     ei = float(np.min(np.asarray(footing.section.E, float)
                       * np.minimum(footing.section.Iy, footing.section.Iz)))
     lam = characteristic_length(profile, ei, footing.width, L)
-    count = max(int(footing.elements), int(np.ceil(ELEMENTS_PER_LENGTH * L / lam)))
+    from spanstay.models.scenario.limits import FOOTING_ELEMENTS_MAX
+
+    needed = ELEMENTS_PER_LENGTH * L / lam
+    if not np.isfinite(needed) or needed > FOOTING_ELEMENTS_MAX:
+        raise InputError(f"meshing this footing ({L:.3g} m deep, bending dying out over "
+                         f"{lam:.3g} m in this soil) would take more than "
+                         f"{FOOTING_ELEMENTS_MAX} elements; check the depth, the soil "
+                         "stiffness and the post size", f"{footing.where or 'footing'}.depth")
+    count = max(int(footing.elements), int(np.ceil(needed)))
     breaks = {0.0, L, *(lay.bottom for lay in profile.layers if 0 < lay.bottom < L)}
     if profile.water_table is not None and 0 < profile.water_table < L:
         breaks.add(profile.water_table)

@@ -1,14 +1,18 @@
 """The whole structure of a scenario as one fem model: anchors and lines."""
 from __future__ import annotations
 
+from collections.abc import Iterator
+from contextlib import contextmanager
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from spanstay.fem import Model
+from spanstay.fem.errors import FemError
+from spanstay.models.common.errors import InputError
 from spanstay.models.parts.anchor import add_anchor
 from spanstay.models.parts.post import RIGID, BuiltAnchor
-from spanstay.models.parts.catenary import chain_points
+from spanstay.models.common.catenary import chain_points
 from spanstay.models.scenario.spec import LineSpec, Scenario
 
 
@@ -108,23 +112,39 @@ def build_system(scenario: Scenario, lengths: dict[str, float], rigid: frozenset
     model = Model()
     pulls = _pulls(scenario)
     heights = attach_heights(scenario)
-    anchors = {a.name: add_anchor(model, a, scenario.ground, heights[a.name], pulls[a.name], rigid,
-                                  slip)
-               for a in scenario.anchors}
+    anchors = {}
+    for a in scenario.anchors:
+        with _as_input_error(f'anchor "{a.name}"', "this anchor cannot be built"):
+            anchors[a.name] = add_anchor(model, a, scenario.ground, heights[a.name],
+                                         pulls[a.name], rigid, slip)
     lines = {}
     d_t = 0.0 if temperature is None else temperature - scenario.settings.install_temperature
     for line in scenario.lines:
         a, b = anchors[line.start], anchors[line.end]
         n1, n2 = a.node_at(line.start_height), b.node_at(line.end_height)
         p1, p2 = model.coords[n1], model.coords[n2]
-        lines[line.name] = _add_line(model, line, n1, n2, p1, p2, lengths[line.name], rigid, d_t)
+        with _as_input_error(f'line "{line.name}"', "this line cannot be hung"):
+            lines[line.name] = _add_line(model, line, n1, n2, p1, p2, lengths[line.name],
+                                         rigid, d_t)
     return System(scenario, model, anchors, lines, rigid)
+
+
+@contextmanager
+def _as_input_error(where: str, what: str) -> Iterator[None]:
+    """Engine or solver errors from building a part, as an InputError naming the part."""
+    try:
+        yield
+    except InputError:
+        raise
+    except (FemError, ValueError, ArithmeticError) as exc:
+        raise InputError(f"{what} as given ({exc}); check its sizes, heights and "
+                         "positions", where) from None
 
 
 def chain_between(p1: np.ndarray, p2: np.ndarray, length: float, weight: float, EA: float,
                   n: int) -> np.ndarray:
     """(n + 1, 3) equilibrium points of an n-segment elastic cable hung from p1 to p2
-    (see :func:`models.parts.catenary.chain_points`), in the vertical plane through both."""
+    (see :func:`models.common.catenary.chain_points`), in the vertical plane through both."""
     plan = (p2 - p1)[:2]
     span = float(np.linalg.norm(plan))
     pts = chain_points(span, float(p1[2] - p2[2]), length, weight, EA, n)

@@ -6,6 +6,7 @@ from typing import Any
 
 from spanstay.models.catalogs import lumber
 from spanstay.models.common.errors import InputError
+from spanstay.models.scenario import limits
 from spanstay.models.scenario.rope_entry import read_rope
 from spanstay.models.scenario.post import (FOOTING_KEYS, POST_KEYS, read_footing, read_post,
                                   read_section)
@@ -36,6 +37,16 @@ def anchor_path(index: int, data: Any) -> str:
     return f'anchor[{index + 1}] "{name}"' if isinstance(name, str) else f"anchor[{index + 1}]"
 
 
+def _check_plan(table: Table, key: str, x: float, y: float) -> None:
+    """Plan coordinates within PLAN_MAX of the origin."""
+    for i, value in enumerate((x, y)):
+        if abs(value) > limits.PLAN_MAX:
+            raise InputError(f"{table.raw(key)[i]!r} is outside the plan area spanstay "
+                             f"accepts (within {limits.PLAN_MAX:g} m, "
+                             f"{limits.PLAN_MAX / 0.3048:.0f} ft, of the origin)",
+                             f"{table.where(key)}[{i + 1}]")
+
+
 def _direction(table: Table, key: str) -> float | None:
     """A plan direction (angle from +x) in degrees, or None."""
     if not table.has(key):
@@ -47,11 +58,13 @@ def read_guy(table: Table, x: float, y: float, grade: float) -> GuySpec:
     """A ``[[anchor.guy]]`` table; the post stands at (x, y) on ``grade``."""
     if table.one_of(("direction", "ground_point")) == "direction":
         direction = table.quantity("direction", "angle")
-        distance = table.quantity("distance", "length", positive=True)
+        distance = table.quantity("distance", "length", positive=True,
+                                  maximum=limits.GUY_DISTANCE_MAX)
         gx, gy = x + distance * math.cos(direction), y + distance * math.sin(direction)
     else:
         table.forbid(("distance",), 'with "ground_point" (it fixes the distance)')
         gx, gy = table.quantities("ground_point", "length", 2)
+        _check_plan(table, "ground_point", gx, gy)
     gz = table.quantity("ground_elevation", "length", grade)
     ground = table.raw("ground_anchor", expected='"fixed" or a table with stiffness '
                        "and capacity")
@@ -67,7 +80,8 @@ def read_guy(table: Table, x: float, y: float, grade: float) -> GuySpec:
         stiffness = sub.quantity("stiffness", "force per length", positive=True)
         capacity = sub.quantity("capacity", "force", None, positive=True)
     return GuySpec(
-        attach_height=table.quantity("attach_height", "length", positive=True),
+        attach_height=table.quantity("attach_height", "length", positive=True,
+                                     maximum=limits.POST_HEIGHT[1]),
         ground_point=(gx, gy, gz),
         direction_deg=math.degrees(math.atan2(gy - y, gx - x)),
         rope=read_rope(table.raw("rope", expected='a rope name, e.g. "7x19-galv-1/4"'),
@@ -111,11 +125,15 @@ def read_brace(table: Table, post: PostSpec) -> BraceSpec:
         species, grade = _wood(table, post, member)
         return BraceSpec(
             kind=kind, direction_deg=direction,
-            attach_height=table.quantity("attach_height", "length", positive=True),
-            foot_distance=table.quantity("foot_distance", "length", positive=True),
+            attach_height=table.quantity("attach_height", "length", positive=True,
+                                         maximum=limits.POST_HEIGHT[1]),
+            foot_distance=table.quantity("foot_distance", "length", positive=True,
+                                         maximum=limits.POST_HEIGHT[1]),
             member=member, species=species, grade=grade,
-            block_width=table.quantity("block_width", "length", None, positive=True),
-            block_length=table.quantity("block_length", "length", None, positive=True))
+            block_width=table.quantity("block_width", "length", None, positive=True,
+                                       maximum=limits.POST_SIZE_MAX),
+            block_length=table.quantity("block_length", "length", None, positive=True,
+                                        maximum=limits.POST_SIZE_MAX))
     second = read_post(table.table("second_post", POST_KEYS, required=True))
     footing_table = table.table("second_footing", FOOTING_KEYS)
     rail = read_section(table.raw("rail", expected='a nominal size like "4x4"'),
@@ -124,8 +142,10 @@ def read_brace(table: Table, post: PostSpec) -> BraceSpec:
     return BraceSpec(
         kind=kind, direction_deg=direction, second_post=second,
         second_footing=read_footing(footing_table) if footing_table else None,
-        distance=table.quantity("distance", "length", positive=True),
-        rail_height=table.quantity("rail_height", "length", positive=True),
+        distance=table.quantity("distance", "length", positive=True,
+                                maximum=limits.GUY_DISTANCE_MAX),
+        rail_height=table.quantity("rail_height", "length", positive=True,
+                                   maximum=limits.POST_HEIGHT[1]),
         rail=rail, species=species, grade=grade,
         diagonal_rope=read_rope(table.raw("diagonal_rope", expected="a rope name"),
                                 table.where("diagonal_rope")),
@@ -142,10 +162,12 @@ def read_tree(table: Table) -> TreeSpec:
     else:
         modulus = REQUIRED
     return TreeSpec(
-        diameter_at_grade=table.quantity("diameter_at_grade", "length", positive=True),
+        diameter_at_grade=table.quantity("diameter_at_grade", "length", positive=True,
+                                         maximum=limits.TREE_SIZE_MAX),
         diameter_at_attachment=table.quantity("diameter_at_attachment", "length",
-                                              positive=True),
-        attachment_height=table.quantity("attachment_height", "length", positive=True),
+                                              positive=True, maximum=limits.TREE_SIZE_MAX),
+        attachment_height=table.quantity("attachment_height", "length", positive=True,
+                                         maximum=limits.ATTACH_HEIGHT_MAX),
         E_green=table.quantity("E_green", "pressure", modulus, positive=True),
         root_plate_stiffness=table.quantity("root_plate_stiffness", "rotational stiffness",
                                             positive=True),
@@ -162,6 +184,7 @@ def read_anchor(index: int, data: Any) -> AnchorSpec:
         raise InputError("an anchor name cannot be empty", table.where("name"))
     kind = table.text("kind", "post", ANCHOR_KINDS)
     x, y = table.quantities("position", "length", 2)
+    _check_plan(table, "position", x, y)
     grade = table.quantity("grade", "length", 0.0)
     if kind == "tree":
         table.forbid(("post", "footing", "brace", "guy"), "to a tree anchor")

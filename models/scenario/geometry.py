@@ -4,10 +4,13 @@ from __future__ import annotations
 import math
 
 from spanstay.models.common.errors import InputError
+from spanstay.models.scenario.limits import SPAN_MAX
+from spanstay.models.scenario.line_shape import check_above_ground
 from spanstay.models.scenario.spec import AnchorSpec, FootingSpec, LineSpec, PostSpec, Scenario, SoilLayerSpec
 
 SAME_POINT = 0.01  # m: anchors closer than this in plan are taken as one point
 PROFILE_SLACK = 0.05  # m: the ground profile may stop this short of the line's ends
+MIN_RIDE = 1.0  # m: the offsets must leave at least this much ride (a judgement)
 
 
 def plan_span(start: AnchorSpec, end: AnchorSpec) -> float:
@@ -47,6 +50,8 @@ def check_scenario(scenario: Scenario) -> None:
     for i, line in enumerate(scenario.lines):
         _check_line(_line_path(i, line), line, scenario)
     _check_rider(scenario)
+    for line in scenario.lines:
+        check_above_ground(scenario, line)
 
 
 def check_anchor_names(anchors: tuple[AnchorSpec, ...]) -> None:
@@ -119,7 +124,12 @@ def _check_anchor(path: str, anchor: AnchorSpec, scenario: Scenario) -> None:
         if guy.attach_height > post.height:
             raise InputError(f"the guy is attached {_m(guy.attach_height)} up, above the "
                              f"top of the post ({_m(post.height)})", where + ".attach_height")
-        gx, gy, _ = guy.ground_point
+        gx, gy, gz = guy.ground_point
+        top = anchor.grade + guy.attach_height
+        if gz >= top:
+            raise InputError(f"the guy's ground anchor (elevation {_m(gz)}) is not below "
+                             f"where the guy meets the post (elevation {_m(top)}); a guy "
+                             "runs down from the post to the ground", where + ".ground_elevation")
         reach = math.hypot(gx - anchor.x, gy - anchor.y)
         if reach < max(post.outline):
             raise InputError(f"the guy's ground anchor is at the post's own base "
@@ -153,6 +163,11 @@ def _check_line(path: str, line: LineSpec, scenario: Scenario) -> None:
             raise InputError(f'attached {_m(height)} up, above the top of the post of '
                              f'anchor "{anchor.name}" ({_m(anchor.post.height)})',
                              f"{path}.{key}")
+    span = plan_span(start, end)
+    if span > SPAN_MAX:
+        raise InputError(f"the line spans {_m(span)} in plan between anchors "
+                         f'"{start.name}" and "{end.name}"; spanstay accepts spans up to '
+                         f"{_m(SPAN_MAX)}", f"{path}.to")
     chord = chord_length(line, start, end)
     if line.unstressed_length is not None and line.unstressed_length <= chord:
         raise InputError(f"the unstressed length ({_m(line.unstressed_length)}) is not "
@@ -172,9 +187,11 @@ def _check_rider(scenario: Scenario) -> None:
     if rider is not None:
         chord = chord_length(line, start, end)
         offsets = rider.start_offset + rider.stop_offset
-        if offsets >= chord:
+        key = "rider.start_offset" if rider.start_offset >= chord else "rider.stop_offset"
+        if offsets > chord - MIN_RIDE:
             raise InputError(f"start_offset and stop_offset together ({_m(offsets)}) "
-                             f"leave no ride on a line {_m(chord)} long", "rider.stop_offset")
+                             f"leave no ride on a line {_m(chord)} long (at least "
+                             f"{_m(MIN_RIDE)} must remain)", key)
     profile = scenario.ground.profile
     span = plan_span(start, end)
     if profile and (profile[0][0] > PROFILE_SLACK or profile[-1][0] < span - PROFILE_SLACK):

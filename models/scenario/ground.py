@@ -7,9 +7,9 @@ from typing import Any
 from spanstay.models.catalogs import soil
 from spanstay.models.common.errors import InputError
 from spanstay.models.catalogs.ibc_embedment import ibc_class_key
-from spanstay.models.scenario.reader import REQUIRED, Table
+from spanstay.models.scenario.limits import SOIL_DEPTH_MAX
+from spanstay.models.scenario.reader import REQUIRED, Table, read_quantity
 from spanstay.models.scenario.spec import GroundSpec, SoilLayerSpec
-from spanstay.models.common.units import parse_quantity
 
 SOIL_KINDS = soil.KINDS
 LAYER_KEYS = ("top", "bottom", "preset", "kind", "unit_weight", "friction_angle",
@@ -40,7 +40,7 @@ def read_layer(table: Table) -> SoilLayerSpec:
     table.forbid([k for k in _MATERIAL_KEYS if k not in _KIND_KEYS[kind]],
                  f"to a {kind} layer")
     top = table.quantity("top", "length", minimum=0.0)
-    bottom = table.quantity("bottom", "length")
+    bottom = table.quantity("bottom", "length", maximum=SOIL_DEPTH_MAX)
     if bottom <= top:
         raise InputError(f"must be deeper than the layer top ({table.raw('top')!r}), got "
                          f"{table.raw('bottom')!r}", table.where("bottom"))
@@ -138,14 +138,14 @@ def read_ground(data: Any) -> tuple[GroundSpec, bool]:
         if not isinstance(point, list) or len(point) != 2:
             raise InputError(f'expected a [distance, elevation] pair like ["0 ft", '
                              f'"100 ft"], got {point!r}', where)
-        distance = parse_quantity(point[0], "length", where)
-        elevation = parse_quantity(point[1], "length", where)
+        distance = read_quantity(point[0], "length", f"{where}[1]")
+        elevation = read_quantity(point[1], "length", f"{where}[2]")
         if profile and distance <= profile[-1][0]:
             raise InputError("profile distances must increase from one point to the next",
                              where)
         profile.append((distance, elevation))
     if len(profile) == 1:
         raise InputError("a profile needs at least two points", table.where("profile"))
-    water = table.quantity("water_table", "length", None, minimum=0.0)
+    water = table.quantity("water_table", "length", None, minimum=0.0, maximum=SOIL_DEPTH_MAX)
     layers = read_layers(table, "soil", water)
     return GroundSpec(profile=tuple(profile), soil=layers, water_table=water), bool(profile)

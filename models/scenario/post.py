@@ -13,6 +13,7 @@ from spanstay.models.scenario.ground import read_layers
 from spanstay.models.scenario.reader import Table
 from spanstay.models.scenario.spec import FastenerSpec, FootingSpec, MaterialOverrides, PostSpec, SectionSpec
 from spanstay.models.common.units import parse_quantity
+from spanstay.models.scenario import limits
 
 POST_KINDS = ("sawn", "round", "laminated")
 STACKS = ("across", "side-by-side")
@@ -49,8 +50,12 @@ def read_section(value: Any, where: str) -> SectionSpec:
         width, depth = read_nominal(value, where)
         return SectionSpec(value.strip(), width, depth)
     table = Table(value, where, ("width", "depth"))
-    return SectionSpec(None, table.quantity("width", "length", positive=True),
-                       table.quantity("depth", "length", positive=True))
+    return SectionSpec(None, _size(table, "width"), _size(table, "depth"))
+
+
+def _size(table: Table, key: str, maximum: float = limits.POST_SIZE_MAX) -> float:
+    """A member or post size (width, depth, diameter), m."""
+    return table.quantity(key, "length", positive=True, maximum=maximum)
 
 
 def read_fastener(table: Table) -> FastenerSpec:
@@ -67,7 +72,8 @@ def read_fastener(table: Table) -> FastenerSpec:
         if kind == "bolt":
             raise InputError('a bolt has no "size"; give diameter and length',
                              table.where("size"))
-        length = table.quantity("length", "length", None, positive=True)
+        length = table.quantity("length", "length", None, positive=True,
+                                maximum=limits.FASTENER_LENGTH_MAX)
         if kind == "nail":
             table.forbid(("diameter", "length"), 'with a nail "size" (the size sets them)')
         else:
@@ -77,12 +83,14 @@ def read_fastener(table: Table) -> FastenerSpec:
         made = fasteners.fastener(kind, size, length, predrilled, table.where("size"))
         diameter, length, name = made.diameter, made.length, made.name
     else:
-        diameter = table.quantity("diameter", "length", positive=True)
-        length = table.quantity("length", "length", positive=True)
+        diameter = table.quantity("diameter", "length", positive=True,
+                                  maximum=limits.FASTENER_DIAMETER_MAX)
+        length = table.quantity("length", "length", positive=True,
+                                maximum=limits.FASTENER_LENGTH_MAX)
         name = None
     return FastenerSpec(
         kind=kind, size=name, diameter=diameter, length=length,
-        spacing=table.quantity("spacing", "length", positive=True),
+        spacing=table.quantity("spacing", "length", minimum=limits.FASTENER_SPACING_MIN),
         rows=table.integer("rows", 1, minimum=1, maximum=20),
         staggered=table.flag("staggered", False), predrilled=predrilled or kind != "nail",
         slip_modulus=table.quantity("slip_modulus", "force per length", None, positive=True))
@@ -94,8 +102,7 @@ def _read_ply(value: Any, where: str) -> SectionSpec:
         a, b = read_nominal(value, where)
         return SectionSpec(value.strip(), max(a, b), min(a, b))
     table = Table(value, where, ("thickness", "width"))
-    return SectionSpec(None, table.quantity("width", "length", positive=True),
-                       table.quantity("thickness", "length", positive=True))
+    return SectionSpec(None, _size(table, "width"), _size(table, "thickness"))
 
 
 def _read_stack(table: Table) -> tuple[str, float]:
@@ -109,6 +116,19 @@ def _read_stack(table: Table) -> tuple[str, float]:
         raise InputError(f'must be "across", "side-by-side" or an angle from 0 to 90 deg, '
                          f"got {value!r}", table.where("stack"))
     return "angle", math.degrees(angle)
+
+
+def _check_fastener_levels(table: Table, fastener: FastenerSpec, height: float) -> None:
+    """Refuse a spacing that would put more than FASTENER_LEVELS_MAX levels on the post
+    (staggered rows put a level every half spacing)."""
+    step = fastener.spacing / 2 if fastener.staggered and fastener.rows > 1 else fastener.spacing
+    levels = height / step
+    if levels > limits.FASTENER_LEVELS_MAX:
+        fewest = height / limits.FASTENER_LEVELS_MAX * (2 if step < fastener.spacing else 1)
+        raise InputError(f"a spacing of {table.data['fastener']['spacing']!r} puts about "
+                         f"{levels:.0f} fastener levels on a post {height:.3g} m tall; spanstay "
+                         f"models at most {limits.FASTENER_LEVELS_MAX} (a spacing of at least "
+                         f"{fewest * 1000:.3g} mm on this post)", table.where("fastener.spacing"))
 
 
 def _check_wood(table: Table, post: PostSpec) -> PostSpec:
@@ -151,24 +171,25 @@ def read_post(table: Table) -> PostSpec:
     overrides = MaterialOverrides(**{
         "shear_modulus" if key == "G" else key: table.quantity(key, dim, None, positive=True)
         for key, dim in OVERRIDE_KEYS.items()})
-    common = dict(kind=kind, height=table.quantity("height", "length", positive=True),
+    height = table.quantity("height", "length", positive=True, minimum=limits.POST_HEIGHT[0],
+                            maximum=limits.POST_HEIGHT[1])
+    common = dict(kind=kind, height=height,
                   species=None, grade=None, overrides=overrides)
     if kind == "sawn":
         if table.one_of(("nominal", "width"), required=True) == "nominal":
             table.forbid(("depth",), 'with "nominal" (give width and depth instead)')
             section = read_section(table.raw("nominal"), table.where("nominal"))
         else:
-            section = SectionSpec(None, table.quantity("width", "length", positive=True),
-                                  table.quantity("depth", "length", positive=True))
+            section = SectionSpec(None, _size(table, "width"), _size(table, "depth"))
         post = PostSpec(section=section, **common)
     elif kind == "round":
         if table.one_of(("diameter", "top_diameter")) == "diameter":
             table.forbid(("base_diameter",), 'with "diameter" (give top_diameter and '
                          "base_diameter for a tapered post)")
-            top = base = table.quantity("diameter", "length", positive=True)
+            top = base = _size(table, "diameter")
         else:
-            top = table.quantity("top_diameter", "length", positive=True)
-            base = table.quantity("base_diameter", "length", positive=True)
+            top = _size(table, "top_diameter")
+            base = _size(table, "base_diameter")
             if base < top:
                 raise InputError("a tapered post is thicker at the base: base_diameter "
                                  f"{table.raw('base_diameter')!r} is less than top_diameter "
@@ -180,6 +201,7 @@ def read_post(table: Table) -> PostSpec:
                         table.where("ply"))
         stack, angle = _read_stack(table)
         fastener = read_fastener(table.table("fastener", FASTENER_KEYS, required=True))
+        _check_fastener_levels(table, fastener, height)
         post = PostSpec(plies=plies, ply=ply, stack=stack, stack_angle_deg=angle,
                         fastener=fastener, **common)
     return _check_wood(table, post)
@@ -202,9 +224,12 @@ def read_footing(table: Table) -> FootingSpec:
         pier, backfill = None, table.text("backfill", "native", BACKFILLS)
     else:
         table.forbid(("backfill",), "to a pier footing (the pier is concrete)")
-        pier, backfill = table.quantity("pier_diameter", "length", positive=True), "concrete"
+        pier = table.quantity("pier_diameter", "length", positive=True,
+                              maximum=limits.PIER_DIAMETER_MAX)
+        backfill = "concrete"
     soil = read_layers(table, "soil") if table.has("soil") else None
-    return FootingSpec(kind=kind, depth=table.quantity("depth", "length", positive=True),
+    return FootingSpec(kind=kind, depth=table.quantity("depth", "length", positive=True,
+                                                       maximum=limits.FOOTING_DEPTH_MAX),
                        pier_diameter=pier, backfill=backfill, base_spring=None, soil=soil,
                        slab_at_grade=table.flag("slab_at_grade", False),
                        double_lateral_bearing=table.flag("double_lateral_bearing", False))

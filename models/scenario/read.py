@@ -28,6 +28,7 @@ from spanstay.models.scenario.spec import (DEFAULT_AIR_DENSITY, DEFAULT_DRAG_ARE
                          AnchorSpec, GroundSpec, LineSpec, ProjectSpec, RiderSpec, Scenario,
                          Settings)
 from spanstay.models.common.units import parse_quantity
+from spanstay.models.scenario import limits
 
 TOP_KEYS = ("project", "settings", "line", "rider", "ground", "anchor")
 PROJECT_KEYS = ("name", "notes")
@@ -61,7 +62,7 @@ def load_scenario(path: str | Path) -> Scenario:
     """
     path = Path(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        text = path.read_text(encoding="utf-8-sig")  # a byte-order mark is fine
     except FileNotFoundError:
         raise InputError(f"no such scenario file: {path}") from None
     except (OSError, UnicodeDecodeError) as exc:
@@ -145,7 +146,8 @@ def _read_settings(table: Table | None) -> Settings:
                                     maximum=5.0),
         install_temperature=install,
         use_temperatures=tuple(use) or (install,),
-        stations=table.integer("stations", DEFAULT_STATIONS, minimum=2, maximum=10000),
+        stations=table.integer("stations", DEFAULT_STATIONS, minimum=2,
+                               maximum=limits.STATIONS_MAX),
         units=table.text("units", "us", ("us", "si")))
 
 
@@ -165,8 +167,10 @@ def _read_line(index: int, data: Any, anchors: dict[str, AnchorSpec]) -> LineSpe
     table.one_of(("sag", "tension", "unstressed_length"))
     return LineSpec(
         name=name, start=ends[0], end=ends[1],
-        start_height=table.quantity("from_height", "length", positive=True),
-        end_height=table.quantity("to_height", "length", positive=True),
+        start_height=table.quantity("from_height", "length", positive=True,
+                                    maximum=limits.ATTACH_HEIGHT_MAX),
+        end_height=table.quantity("to_height", "length", positive=True,
+                                  maximum=limits.ATTACH_HEIGHT_MAX),
         rope=read_rope(table.raw("rope", expected='a rope name, e.g. "7x19-galv-1/4"'),
                        table.where("rope")),
         sag=table.quantity("sag", "length", None, positive=True),
@@ -181,23 +185,29 @@ def _read_line(index: int, data: Any, anchors: dict[str, AnchorSpec]) -> LineSpe
 def _read_rider(table: Table, settings: Settings, lines: tuple[LineSpec, ...]) -> RiderSpec:
     names = [line.name for line in lines]
     line = table.text("line", names[0], names)
-    lightest = table.quantity("lightest", "weight", positive=True)
-    heaviest = table.quantity("heaviest", "weight", positive=True)
+    lightest = table.quantity("lightest", "weight", positive=True,
+                              maximum=limits.RIDER_WEIGHT_MAX)
+    heaviest = table.quantity("heaviest", "weight", positive=True,
+                              maximum=limits.RIDER_WEIGHT_MAX)
     if heaviest < lightest:
         raise InputError(f"the heaviest rider ({table.raw('heaviest')!r}) is lighter than "
                          f"the lightest ({table.raw('lightest')!r})", table.where("heaviest"))
     return RiderSpec(
         line=line, lightest=lightest, heaviest=heaviest,
-        hang_distance=table.quantity("hang_distance", "length", minimum=0.0),
+        hang_distance=table.quantity("hang_distance", "length", minimum=0.0,
+                                     maximum=limits.HANG_DISTANCE_MAX),
         dynamic_factor=table.number("dynamic_factor", settings.dynamic_factor, minimum=1.0,
                                     maximum=5.0),
         rolling_resistance=table.number("rolling_resistance", DEFAULT_ROLLING_RESISTANCE,
                                         minimum=0.0, maximum=0.5),
-        drag_area=table.quantity("drag_area", "area", DEFAULT_DRAG_AREA, minimum=0.0),
+        drag_area=table.quantity("drag_area", "area", DEFAULT_DRAG_AREA, minimum=0.0,
+                                 maximum=limits.DRAG_AREA_MAX),
         air_density=table.quantity("air_density", "density", DEFAULT_AIR_DENSITY,
                                    positive=True, maximum=2.0),
-        start_speed=table.quantity("start_speed", "speed", 0.0, minimum=0.0),
-        stations=table.integer("stations", settings.stations, minimum=2, maximum=10000),
+        start_speed=table.quantity("start_speed", "speed", 0.0, minimum=0.0,
+                                   maximum=limits.START_SPEED_MAX),
+        stations=table.integer("stations", settings.stations, minimum=2,
+                               maximum=limits.STATIONS_MAX),
         start_offset=table.quantity("start_offset", "length", DEFAULT_END_OFFSET,
                                     minimum=0.0),
         stop_offset=table.quantity("stop_offset", "length", DEFAULT_END_OFFSET, minimum=0.0))

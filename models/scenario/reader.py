@@ -12,6 +12,7 @@ from typing import Any
 
 from spanstay.models.common.errors import InputError, did_you_mean
 from spanstay.models.common.units import DIMENSIONS, parse_quantity, parse_ratio
+from spanstay.models.scenario.limits import MAGNITUDE
 
 REQUIRED: Any = object()  # marker: the key must be present
 
@@ -96,6 +97,7 @@ class Table:
         value = self._placeholder(key, value)
         si = parse_quantity(value, dimension, self.where(key))
         self._check_range(key, si, value, positive, minimum, maximum, dimension)
+        check_magnitude(si, value, dimension, self.where(key), positive)
         return si
 
     def _placeholder(self, key: str, value: Any) -> Any:
@@ -190,21 +192,45 @@ class Table:
             sample = ", ".join([f'"{dim.example}"'] * count)
             raise InputError(f"expected an array of {count} values like [{sample}], "
                              f"got {value!r}", self.where(key))
-        return tuple(parse_quantity(v, dimension, f"{self.where(key)}[{i + 1}]")
+        return tuple(read_quantity(v, dimension, f"{self.where(key)}[{i + 1}]")
                      for i, v in enumerate(value))
 
     def _check_range(self, key: str, si: float, written: Any, positive: bool,
                      minimum: float | None, maximum: float | None,
                      dimension: str | None) -> None:
         shown = f"{written!r}" if isinstance(written, str) else f"{written}"
-        if positive and not si > 0:
-            raise InputError(f"must be greater than zero, got {shown}", self.where(key))
-        if minimum is not None and si < minimum:
-            raise InputError(f"must be at least {_limit(minimum, dimension)}, got {shown}",
-                             self.where(key))
-        if maximum is not None and si > maximum:
-            raise InputError(f"must be at most {_limit(maximum, dimension)}, got {shown}",
-                             self.where(key))
+        low = (f"at least {_limit(minimum, dimension)}" if minimum is not None
+               else "greater than zero" if positive else None)
+        high = f"at most {_limit(maximum, dimension)}" if maximum is not None else None
+        expected = " and ".join(part for part in (low, high) if part)
+        if positive and minimum is not None:
+            expected = f"greater than zero ({expected})"
+        too_low = (positive and not si > 0) or (minimum is not None and si < minimum)
+        if too_low or (maximum is not None and si > maximum):
+            raise InputError(f"must be {expected}, got {shown}", self.where(key))
+
+
+def read_quantity(value: Any, dimension: str, where: str, positive: bool = False) -> float:
+    """A quantity outside a table's keys (array items), SI, within :data:`MAGNITUDE`."""
+    si = parse_quantity(value, dimension, where)
+    check_magnitude(si, value, dimension, where, positive)
+    return si
+
+
+def check_magnitude(si: float, written: Any, dimension: str, where: str,
+                    positive: bool = False) -> None:
+    """Refuse a value outside the catch-all range of its dimension (:data:`MAGNITUDE`)."""
+    smallest, largest = MAGNITUDE[dimension]
+    if dimension == "temperature":
+        low, high = smallest, largest
+        bad = not low <= si <= high
+    else:
+        low, high = (smallest if positive else -largest), largest
+        bad = abs(si) > largest or (positive and 0 < si < smallest)
+    if bad:
+        raise InputError(f"{written!r} is outside the range spanstay accepts for "
+                         f"{DIMENSIONS[dimension].words} ({_limit(low, dimension)} to "
+                         f"{_limit(high, dimension)})", where)
 
 
 def _limit(value: float, dimension: str | None) -> str:
@@ -212,4 +238,9 @@ def _limit(value: float, dimension: str | None) -> str:
         return f"{math.degrees(value):g} deg"
     if dimension is None:
         return f"{value:g}"
-    return f"{value:g} {DIMENSIONS[dimension].si_unit}"
+    unit = DIMENSIONS[dimension].si_unit
+    if unit == "m":
+        return f"{value:g} m ({value / 0.3048:.4g} ft)"
+    if unit == "N" and abs(value) >= 1.0:
+        return f"{value:g} N ({value / 4.4482216152605:.4g} lbf)"
+    return f"{value:g} {unit}"

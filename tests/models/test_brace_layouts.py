@@ -84,11 +84,11 @@ def test_examples_read_and_build(name):
     from pathlib import Path
 
     from spanstay.models.parts.system import build_system
-    from spanstay.models.analysis.installed import line_geometry, rigid_support_length
+    from spanstay.models.scenario.line_shape import rigid_support_length
 
     path = Path(__file__).resolve().parents[2] / "examples" / f"{name}.toml"
     scenario = load_scenario(path)
-    lengths = {ln.name: rigid_support_length(ln, *line_geometry(scenario, ln))
+    lengths = {ln.name: rigid_support_length(scenario, ln)
                for ln in scenario.lines}
     system = build_system(scenario, lengths)
     kinds = {a.spec.name: (len(a.guys), getattr(a.brace, "kind", None))

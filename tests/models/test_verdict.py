@@ -21,22 +21,25 @@ TREE = ROOT / "models" / "scenario" / "layouts" / "tree.toml"
 LBF = 4.4482216152605  # N per lbf (NIST SP 811)
 
 
-def _example(heaviest: str) -> dict:
+def _example(heaviest: str, pier_depth: str | None = None) -> dict:
     data = tomllib.loads(EXAMPLE.read_text("utf-8"))
     data["rider"]["heaviest"] = heaviest
+    if pier_depth is not None:  # shallower piers: the footings give way sooner
+        for anchor in data["anchor"]:
+            anchor["footing"]["depth"] = pier_depth
     return data
 
 
 @pytest.fixture(scope="module")
 def design_gives_way():
-    """2,500 lbf x 1.5: the rides hold, the design pass finds no equilibrium early on."""
-    return spanstay.analyse(_example("2500 lbf"), stations=4, slack_budget=False)
+    """2,200 lbf x 1.5: the rides hold, the design pass finds no equilibrium early on."""
+    return spanstay.analyse(_example("2200 lbf"), stations=4, slack_budget=False)
 
 
 @pytest.fixture(scope="module")
 def heavy_ride_gives_way():
-    """4,000 lbf: even the static heavy rider finds no equilibrium."""
-    return spanstay.analyse(_example("4000 lbf"), stations=4, slack_budget=True)
+    """2,200 lbf on 4 ft piers: even the static heavy rider finds no equilibrium."""
+    return spanstay.analyse(_example("2200 lbf", "4 ft"), stations=4, slack_budget=True)
 
 
 def test_a_stopped_design_pass_is_a_finding_and_feeds_no_check(design_gives_way):
@@ -47,7 +50,7 @@ def test_a_stopped_design_pass_is_a_finding_and_feeds_no_check(design_gives_way)
     (inc,) = [i for i in v.incomplete if i.pass_name == "design"]
     # the weight that gave way is the scenario's heaviest rider x its dynamic factor
     factor = tomllib.loads(EXAMPLE.read_text("utf-8"))["settings"]["dynamic_factor"]
-    assert inc.rider_weight == pytest.approx(2500 * LBF * factor, rel=1e-12)
+    assert inc.rider_weight == pytest.approx(2200 * LBF * factor, rel=1e-12)
     assert inc.stations_solved < inc.stations and "anchor" in inc.gave_way
     assert not [c for c in v.checks if (c.governing or {}).get("pass") == "design"]
     assert any("structural check under pass 'design'" in n.what for n in v.not_checked)
@@ -95,7 +98,7 @@ def _write_toml(path: Path, data: dict) -> None:
 
 def test_cli_exit_status_is_4_when_incomplete_and_the_finding_comes_first(tmp_path):
     scenario = tmp_path / "heavy.toml"
-    _write_toml(scenario, _example("2500 lbf"))
+    _write_toml(scenario, _example("2200 lbf"))
     run = CliRunner().invoke(main, ["run", str(scenario), "--stations", "3",
                                     "--out", str(tmp_path / "out")])
     assert run.exit_code == EXIT_CODES["incomplete"] == 4, run.output

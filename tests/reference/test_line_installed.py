@@ -10,7 +10,7 @@ import numpy as np
 import pytest
 from scipy.optimize import fsolve
 
-from spanstay.models.parts.catenary import midspan_sag, solve_catenary
+from spanstay.models.common.catenary import midspan_sag, solve_catenary
 from spanstay.models.analysis.installed import end_tensions, install, measured_sag
 from spanstay.models.scenario.read import load_scenario
 
