@@ -12,6 +12,7 @@ import numpy as np
 
 from spanstay.fem import State, solve
 from spanstay.fem.errors import FemError
+from spanstay.models.analysis.failure_site import failure_parts
 from spanstay.models.common.errors import InputError
 from spanstay.models.scenario import line_shape
 from spanstay.models.scenario.spec import LineSpec, Scenario
@@ -71,7 +72,11 @@ def solve_installed(system: System, state: State | None = None) -> State:
     try:
         return solve(system.model, state=state, steps=1)
     except FemError as exc:
-        raise InputError(f"the installed state has no equilibrium: {exc}", "line") from None
+        lines = ", ".join(f'line "{name}"' for name in system.lines)
+        raise InputError(f"the installed state (self-weight and pretensions) has no "
+                         f"equilibrium; largest imbalance in {failure_parts(system, exc)}. "
+                         f"Check the sag or tension, the rope and the anchors. Engine: {exc}",
+                         lines) from None
 
 
 def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
@@ -119,12 +124,15 @@ def _wire_targets(system: System) -> list[tuple[str, float]]:
 
 
 def _tune_wires(system: System, wires, state: State) -> State:
-    from spanstay.models.parts.guys import tune_pretension
+    from spanstay.models.parts.guys import pretension_targets, tune_pretension
 
     try:
         return tune_pretension(system.model, wires, state)
     except FemError as exc:
-        raise InputError(f"the guys cannot be brought to their pretension: {exc}", "anchor") from None
+        names = [n for n, a in system.anchors.items() if pretension_targets(a)]
+        where = ", ".join(f'anchor "{n}".guy pretension' for n in names) or "anchor"
+        raise InputError(f"the guys cannot be brought to their pretension; largest imbalance "
+                         f"in {failure_parts(system, exc)}. Engine: {exc}", where) from None
 
 
 def _match_lines(scenario: Scenario, system: System, state: State) -> State:

@@ -8,20 +8,14 @@ early (the analysis is incomplete, whatever the checks say); 2 stays bad input.
 """
 from __future__ import annotations
 
-import re
 from dataclasses import asdict, dataclass, field
 
+from spanstay.models.analysis.failure_site import gave_way
 from spanstay.models.checks.check import Check
 from spanstay.models.common.json_safe import json_safe
 
 #: exit status of ``spanstay run`` by verdict status
 EXIT_CODES = {"pass": 0, "fail": 3, "incomplete": 4}
-
-#: part names of the anchors' element groups, as a person reads them
-PART_WORDS = {"post": "post", "fasteners": "fasteners between the plies",
-              "soil": "soil around the footing", "footing_member": "embedded footing",
-              "guy": "guys", "brace": "brace", "root": "root plate"}
-
 
 @dataclass(frozen=True)
 class Incomplete:
@@ -97,26 +91,6 @@ class Verdict:
                           "not_checked_count": len(self.not_checked),
                           "incomplete": [asdict(i) for i in self.incomplete],
                           "not_checked": [asdict(n) for n in self.not_checked]})
-
-
-def gave_way(system, group_labels: tuple[str, ...]) -> str:
-    """The parts of ``system`` named by element labels such as "beam 'east.post'[3]"."""
-    names = [m.group(1) for lab in group_labels if (m := re.search(r"'([^']+)'", lab))]
-    names = names or list(group_labels)
-    words: list[str] = []
-    for name in names:
-        word = None
-        for anchor_name, anchor in system.anchors.items():
-            for part, groups in anchor.groups.items():
-                if name in groups:
-                    word = f"the {PART_WORDS.get(part, part)} of anchor '{anchor_name}'"
-        for line_name, line in system.lines.items():
-            if name == line.group:
-                word = f"the cable of line '{line_name}'"
-        word = word or f"element group '{name}'"
-        if word not in words:
-            words.append(word)
-    return ", ".join(words) if words else "an unknown place (no imbalance reported)"
 
 
 def incomplete_pass(system, case, p) -> Incomplete:
