@@ -15,6 +15,7 @@ values.
 from __future__ import annotations
 
 import math
+import re
 
 import numpy as np
 import pytest
@@ -213,6 +214,33 @@ def test_sawn_post_with_axial_load_matches_nds_column_interaction():
     check = checks["anchor.a.post.stress"]
     assert check.demand == pytest.approx(max(values), rel=1e-2)
     assert check.governing["station"] == int(np.argmax(values))
+    # the note shows the column and beam stability terms it used: le/d about the weak
+    # axis with Ke 2.1, c = 0.8 for sawn lumber, RB = sqrt(le d / b^2) (NDS 3.3.3)
+    cp = re.search(r"CP: le/d = ([0-9.]+), FcE = [0-9]+ psi, c = ([0-9.]+)", check.note)
+    assert float(cp.group(1)) == pytest.approx(2.1 * HEIGHT_SAWN / B, abs=0.06)
+    assert float(cp.group(2)) == 0.8
+    rb = float(re.search(r"RB = ([0-9.]+)", check.note).group(1))
+    assert rb == pytest.approx(math.sqrt((1.44 * HEIGHT_SAWN + 3 * D) * D / B**2), abs=0.06)
+
+
+def test_sawn_post_in_net_tension_matches_nds_tension_and_bending():
+    # NDS 2018 3.9.1: ft/Ft' + fb/Fb* <= 1 and (fb - ft)/Fb** <= 1, Fb** with CL;
+    # Ft = 575 psi, CF 1.2 for 8 in wide, CM 1.0 (Supplement Table 4A, from memory)
+    uplift = -15_000.0   # N, upward at the top
+    system, design, checks, node = solve_design(SAWN, uplift)
+    w = post_weight(system, HEIGHT_SAWN)
+    area, s = B * D, B * D**2 / 6
+    emin = EMIN * CM_E * PSI
+    fb_star = FB * CM_FB * CF_FB * PSI
+    le_b = 1.44 * HEIGHT_SAWN + 3 * D
+    cl = stability(1.20 * emin / (le_b * D / B**2) / fb_star, 0.95)
+    values = []
+    for st, state in zip(design.stations, design.states):
+        n, m = grade_actions(system, state, st.s, node, uplift, w)
+        assert n > 0
+        ft, fb = n / area, m / s
+        values.append(max(ft / (575 * 1.2 * PSI) + fb / fb_star, (fb - ft) / (fb_star * cl)))
+    assert checks["anchor.a.post.stress"].demand == pytest.approx(max(values), rel=1e-2)
 
 
 def test_round_pole_with_axial_load_matches_nds_column_interaction():
@@ -223,6 +251,7 @@ def test_round_pole_with_axial_load_matches_nds_column_interaction():
     assert min(h[1] for h in hand) > 0.4
     check = checks["anchor.a.post.stress"]
     assert check.demand == pytest.approx(max(values), rel=1e-2)
+    assert "c = 0.85 (NDS 3.7.1)" in check.note      # the round-pole column constant
     # Ke 2.0 instead of 2.1 would give a ratio lower by more than the tolerance
     n, m = grade_actions(system, design.states[0], design.stations[0].s, node, vertical,
                          post_weight(system, HEIGHT_POLE))
