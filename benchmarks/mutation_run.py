@@ -312,7 +312,8 @@ COMPOSITION_TESTS = ["tests/reference/test_run_composition.py", "tests/models/te
                      "tests/models/test_run_two_lines.py", "tests/models/test_run_end_to_end.py"]
 POST_TESTS = ["tests/reference/test_post_column.py", "tests/reference/test_checks_post.py",
               "tests/models/test_checks.py", "tests/reference/test_timber_nds.py"]
-SOIL_TESTS = ["tests/reference/test_soil_api_sand.py", "tests/reference/test_soil_matlock.py",
+SOIL_TESTS = ["tests/reference/test_soil_api_sand.py", "tests/reference/test_soil_api_factor.py",
+              "tests/reference/test_soil_matlock.py",
               "tests/models/test_soil_curves.py", "tests/models/test_soil_profile.py",
               "tests/reference/test_footing_broms.py", "tests/reference/test_footing_winkler.py",
               "tests/reference/test_footing_statics.py", "tests/reference/test_footing_pushover.py",
