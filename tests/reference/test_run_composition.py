@@ -264,3 +264,17 @@ def test_design_pass_slips_more_than_the_same_pass_with_k_ser(laminated):
         slips[slip] = max(float(np.abs(a).max()) for a in res.slip_along)
     ratio = slips["ultimate"] / slips["service"]
     assert 1.1 < ratio < 1.5
+
+
+def test_strength_structure_keeps_the_cable_cut_for_the_service_one(laminated):
+    # one cable is cut and hung: the K_u structure carries the same unstressed lengths
+    # (cable and guys) as the K_ser one it was installed from, not a re-cut of its own
+    _, built = laminated
+    service, ultimate = built["service"].system.model, built["ultimate"].system.model
+    for name in ("line.main",) + tuple(g.cable for a in built["service"].system.anchors.values()
+                                       for g in a.guys):
+        np.testing.assert_array_equal(ultimate.group(name).L0, service.group(name).L0)
+    # and the two installed states differ (the laminated post is softer with K_u)
+    top = built["service"].system.anchors["launch"].top_node
+    assert not np.allclose(built["ultimate"].installed.translation[top],
+                           built["service"].installed.translation[top], rtol=1e-6, atol=0)
