@@ -114,3 +114,23 @@ def test_ply_shear_is_three_halves_v_over_a():
     shear = [c for c in check_laminated(post, res) if c.part == "ply 1" and c.check == "shear"][0]
     assert shear.demand == pytest.approx(1.5 * 500 / (0.0381 * 0.18415), rel=1e-2)
     assert shear.capacity == pytest.approx(180 * 0.97 * PSI, rel=1e-9)
+
+
+def test_built_up_column_buckling_along_the_plies_governs_for_narrow_plies():
+    # Four hem-fir No. 2 2x4 plies nailed across (stack 6 in deep, plies 3.5 in wide),
+    # 1.2 m, Ke 2.1: le = 99.213 in. Fc* = 1300 x CF 1.15 x CM 0.8 = 1196 psi, Emin' =
+    # 423,000 psi (NDS Supplement Table 4A, from memory). Along the plies (3.5 in, no Kf):
+    # le/d = 28.347, FcE = 432.73 psi, a = 0.36181, CP = 0.85113 - 0.52169 = 0.32944;
+    # across (6 in, Kf 0.6): le/d = 16.535, CP = 0.6 x 0.71176 = 0.42706 (larger).
+    # Fc' = 394.01 psi; P = 100 psi x 21 in^2: (100 / 394.01)^2 = 0.064415 (NDS 3.9.2).
+    L = 1.2
+    d = laminated_design("2x4", 4, "hem-fir", "No. 2", nail("16d"), 0.15, L, rows=2)
+    m = Model(gravity=(0.0, 0.0, 0.0))
+    post = add_laminated_post(m, (0, 0, 0), d, L, heights=[L], weight=False)
+    m.fix(post.base_node, "all")
+    m.add_load(post.node_at(L), [0, 0, -100 * PSI * 21.0 * INCH**2, 0, 0, 0])
+    res = laminated_results(post, solve(m))
+    stab = [c for c in check_laminated(post, res) if c.part == "post"][0]
+    cp = [f for f in stab.factors if f["symbol"] == "CP"][0]
+    assert cp["value"] == pytest.approx(0.32944, rel=1e-3)
+    assert stab.demand == pytest.approx(0.064415, rel=2e-3)
