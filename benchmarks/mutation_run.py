@@ -311,7 +311,8 @@ ENGINE_TESTS = ["tests/reference/test_engine_beams.py", "tests/reference/test_en
 COMPOSITION_TESTS = ["tests/reference/test_run_composition.py", "tests/models/test_run_laminated_slip.py",
                      "tests/models/test_run_two_lines.py", "tests/models/test_run_end_to_end.py"]
 POST_TESTS = ["tests/reference/test_post_column.py", "tests/reference/test_checks_post.py",
-              "tests/models/test_checks.py", "tests/reference/test_timber_nds.py"]
+              "tests/models/test_checks.py", "tests/reference/test_timber_nds.py",
+              "tests/reference/test_deflection_check.py"]
 SOIL_TESTS = ["tests/reference/test_soil_api_sand.py", "tests/reference/test_soil_api_factor.py",
               "tests/reference/test_soil_matlock.py",
               "tests/models/test_soil_curves.py", "tests/models/test_soil_profile.py",
@@ -326,12 +327,15 @@ TESTS: dict[str, list[str]] = {
     POSTS: POST_TESTS, DEFL: POST_TESTS,
     LAM: ["tests/reference/test_laminated_checks.py", "tests/models/test_checks.py",
           "tests/reference/test_post_column.py"],
-    SOIL: ["tests/reference/test_checks_ibc.py", "tests/models/test_verdict.py",
+    SOIL: ["tests/reference/test_checks_ibc.py", "tests/reference/test_checks_ibc_shapes.py",
+           "tests/models/test_verdict.py",
            "tests/reference/test_footing_statics.py", "tests/models/test_checks.py"],
     ANCH: ["tests/reference/test_guy_checks.py", "tests/reference/test_brace_checks.py",
+           "tests/reference/test_anchor_parts_checks.py",
            "tests/models/test_checks_hbrace.py", "tests/models/test_tree_anchor.py",
            "tests/reference/test_post_column.py"],
-    RIDE: ["tests/models/test_verdict.py", "tests/models/test_ride.py", "tests/models/test_checks.py"],
+    RIDE: ["tests/models/test_ride_checks.py", "tests/models/test_verdict.py",
+           "tests/models/test_ride.py", "tests/models/test_checks.py"],
     COLL: ["tests/models/test_verdict.py", "tests/models/test_checks.py",
            "tests/models/test_run_two_lines.py"],
     VERD: ["tests/models/test_verdict.py", "tests/models/test_checks.py"],
