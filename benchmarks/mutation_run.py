@@ -307,6 +307,7 @@ ENGINE_TESTS = ["tests/reference/test_engine_beams.py", "tests/reference/test_en
                 "tests/reference/test_engine_links.py", "tests/reference/test_engine_balance.py",
                 "tests/reference/test_engine_foundation.py", "tests/reference/test_line_statics.py",
                 "tests/fem/test_fem_tangents.py", "tests/reference/test_engine_beam_torsion.py",
+                "tests/reference/test_engine_self_weight.py",
                 "tests/reference/test_run_composition.py"]
 COMPOSITION_TESTS = ["tests/reference/test_run_composition.py", "tests/models/test_run_laminated_slip.py",
                      "tests/models/test_run_two_lines.py", "tests/models/test_run_end_to_end.py"]
