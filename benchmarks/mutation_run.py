@@ -315,6 +315,7 @@ POST_TESTS = ["tests/reference/test_post_column.py", "tests/reference/test_check
               "tests/models/test_checks.py", "tests/reference/test_timber_nds.py",
               "tests/reference/test_deflection_check.py"]
 SOIL_TESTS = ["tests/reference/test_soil_api_sand.py", "tests/reference/test_soil_api_factor.py",
+              "tests/reference/test_soil_matlock_curve.py",
               "tests/reference/test_soil_matlock.py",
               "tests/models/test_soil_curves.py", "tests/models/test_soil_profile.py",
               "tests/reference/test_footing_broms.py", "tests/reference/test_footing_winkler.py",
