@@ -124,6 +124,8 @@ class SoilLayerSpec:
     modulus_gradient: float | None = None     # N/m^3
     ibc_class: str | None = None              # key of models.catalogs.ibc_embedment
     preset: str | None = None                 # models.catalogs.soil preset the values came from
+    loading: str = "cyclic"                   # "static" | "cyclic" p-y curves (DEFAULT_SOIL_LOADING)
+    matlock_J: float | None = None            # Matlock's J (clay); None: 0.5
 
 
 @dataclass(frozen=True)
@@ -339,3 +341,9 @@ DEFAULT_ROLLING_RESISTANCE = 0.02
 #: Ride starts/stops this far from the terminations, m: a judgement (the
 #: trolley cannot reach the termination hardware).
 DEFAULT_END_OFFSET = 1.0
+#: p-y curves of every soil layer unless the layer says ``loading = "static"``: cyclic
+#: (API RP 2A / 2GEO sand A = 0.9; Matlock 1970 cyclic clay). A rider's pull is applied
+#: and released thousands of times over a line's life, which is the repeated loading the
+#: cyclic curves were fitted to; the static curves would overstate the soil's limit
+#: (by 1.5 to 3 times near grade in sand). Our judgement, on the safe side.
+DEFAULT_SOIL_LOADING = "cyclic"
