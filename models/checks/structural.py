@@ -28,7 +28,7 @@ from spanstay.models.checks.deflection import deflection_checks
 from spanstay.models.checks.laminated import embedded_laminated_checks, laminated_post_checks
 from spanstay.models.checks.line import line_checks
 from spanstay.models.checks.posts import solid_post_checks
-from spanstay.models.checks.soil import has_soil_limit, soil_checks, soil_limit_ratio
+from spanstay.models.checks.soil import has_soil_limit, soil_checks
 from spanstay.models.checks.verdict import NotChecked
 from spanstay.models.parts.system import System
 
@@ -166,17 +166,10 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
                                         "reinforcement, bearing of the post in the pier)",
                                   "spanstay has no concrete pier check yet"))
         if anchor.footing is not None:
-            if has_soil_limit(anchor.footing):
-                ratio, length = soil_limit_ratio(system, anchor, states) if states else (0.0, 0.0)
-                seen = (f"; largest p/p_u {ratio:.2f}, soil at its limit over {length:.2f} m"
-                        if states else "")
-                out.append(NotChecked(name, "the soil's ultimate lateral capacity",
-                                      "the p-y curves cap each soil reaction at its limit, so "
-                                      "p/p_u cannot exceed 1 and is reported, not checked"
-                                      + seen))
-            else:
-                out.append(NotChecked(name, "soil utilization", "a linear-modulus soil has no "
-                                      "ultimate resistance; the tilt and IBC checks still apply"))
+            if not has_soil_limit(anchor.footing):
+                out.append(NotChecked(name, "soil utilization and the soil's ultimate lateral "
+                                      "capacity", "a linear-modulus soil has no ultimate "
+                                      "resistance; the tilt and IBC checks still apply"))
             out.append(NotChecked(name, "uplift, end bearing and the footing's own weight",
                                   "the footing toe is held vertically in the model"))
             layers = anchor.footing.profile.layers

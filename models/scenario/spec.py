@@ -276,6 +276,10 @@ class Settings:
     use_temperatures: tuple[float, ...]  # K, temperatures the line is checked at
     stations: int                    # default number of rider stations
     units: str                       # "us" | "si" display preference
+    soil_factor_of_safety: float = 2.5     # on a footing's ultimate lateral load (see defaults)
+    uplift_factor_of_safety: float = 2.0   # on a footing's uplift resistance
+    sliding_factor_of_safety: float = 1.5  # on a block's sliding resistance
+    tree_factor_of_safety: float = 3.0     # on a tree stem's green strength
 
 
 @dataclass(frozen=True)
@@ -347,3 +351,15 @@ DEFAULT_END_OFFSET = 1.0
 #: cyclic curves were fitted to; the static curves would overstate the soil's limit
 #: (by 1.5 to 3 times near grade in sand). Our judgement, on the safe side.
 DEFAULT_SOIL_LOADING = "cyclic"
+#: On a footing's ultimate lateral load (pushover): our judgement, in the 2 to 3 range
+#: usual for the geotechnical capacity of laterally loaded piles and poles.
+DEFAULT_SOIL_FACTOR_OF_SAFETY = 2.5
+#: On a footing's uplift resistance (own weight plus side friction): our judgement
+#: (2 is usual for pile uplift with side friction from soil parameters, common practice).
+DEFAULT_UPLIFT_FACTOR_OF_SAFETY = 2.0
+#: On a block's sliding resistance (friction plus passive pressure): common practice for
+#: sliding of foundations and retaining walls (IBC 2021 §1807.2.3 asks 1.5 for walls).
+DEFAULT_SLIDING_FACTOR_OF_SAFETY = 1.5
+#: On a tree stem's green compression strength parallel to grain (a mean clear-wood
+#: value): our judgement, for the unknown decay and defects of a living stem.
+DEFAULT_TREE_FACTOR_OF_SAFETY = 3.0

@@ -116,5 +116,8 @@ def summary_text(scenario: Scenario, units: str) -> str:
     temps = ", ".join(show(t, "temperature", units) for t in s.use_temperatures)
     out.append(f"settings: factor of safety {s.factor_of_safety:g}, installed at "
                f"{show(s.install_temperature, 'temperature', units)}, used at {temps}")
+    out.append(f"ground factors of safety: soil lateral {s.soil_factor_of_safety:g}, uplift "
+               f"{s.uplift_factor_of_safety:g}, sliding {s.sliding_factor_of_safety:g}, tree "
+               f"stem {s.tree_factor_of_safety:g}")
     out.append(f"caution: {CAUTIONS}")
     return "\n".join(out)
