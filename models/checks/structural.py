@@ -170,8 +170,14 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
                 out.append(NotChecked(name, "soil utilization and the soil's ultimate lateral "
                                       "capacity", "a linear-modulus soil has no ultimate "
                                       "resistance; the tilt and IBC checks still apply"))
-            out.append(NotChecked(name, "uplift, end bearing and the footing's own weight",
-                                  "the footing toe is held vertically in the model"))
+            out.append(NotChecked(name, "settlement of the footing",
+                                  "the footing toe is held vertically in the model; its "
+                                  "reaction is checked for end bearing and uplift"))
+            toe = anchor.footing.profile.layer_at(anchor.footing.footing.depth)
+            if anchor.footing.profile.layers[int(toe)].ibc_class is None:
+                out.append(NotChecked(name, "end bearing under the toe",
+                                      "the soil layer at the toe has no ibc_class (give its "
+                                      "Table 1806.2 class)"))
             layers = anchor.footing.profile.layers
             if any(lay.ibc_class is None for lay in layers if lay.top < anchor.footing.footing.depth):
                 out.append(NotChecked(name, "IBC 2021 embedment depth (Eq. 18-1/18-2)",
