@@ -33,7 +33,9 @@ from spanstay.models.analysis.anchor_shares import reaction_shares
 from spanstay.models.parts.braces import BuiltHBrace, BuiltKicker, BuiltMember, member_axial_force
 from spanstay.models.parts.guys import BuiltGuy, guy_state
 from spanstay.models.catalogs.ibc_embedment import PSF, ibc_class_key
-from spanstay.models.scenario.spec import DEFAULT_FACTOR_OF_SAFETY, DEFAULT_TERMINATION_EFFICIENCY
+from spanstay.models.scenario.spec import (DEFAULT_FACTOR_OF_SAFETY,
+                                           DEFAULT_SLIDING_FACTOR_OF_SAFETY,
+                                           DEFAULT_TERMINATION_EFFICIENCY)
 
 #: IBC 2021 Table 1806.2, presumptive allowable foundation pressure, psf (from memory)
 IBC_ALLOWABLE_BEARING_PSF = {
@@ -199,8 +201,11 @@ def allowable_soil_bearing(ibc_class: str | None) -> tuple[float, str]:
 
 
 def kicker_checks(anchor: str, kicker: BuiltKicker, built, model: Model, state: State,
-                  top_soil_class: str | None = None, wet: bool = True) -> list[AnchorCheck]:
-    """Strut column check, end bearing on the post and on the block, block on soil."""
+                  top_soil_class: str | None = None, wet: bool = True,
+                  sliding_factor_of_safety: float = DEFAULT_SLIDING_FACTOR_OF_SAFETY
+                  ) -> list[AnchorCheck]:
+    """Strut column check, end bearing on the post and on the block, block on soil and
+    its sliding (:mod:`models.checks.sliding`)."""
     strut = kicker.strut
     out = member_checks(anchor, "kicker strut", strut, state, wet)
     compression = -float(np.min(member_axial_force(state, strut)))
@@ -227,6 +232,17 @@ def kicker_checks(anchor: str, kicker: BuiltKicker, built, model: Model, state: 
                                note=note,
                                finding="uplift: the strut lifts its block; hold it down"
                                if up < 0 else ""))
+        from spanstay.models.checks.sliding import block_sliding, resultant
+        brace = built.spec.brace
+        h, down = resultant(state.reactions[kicker.block_node, :3])
+        demand, cap, note = block_sliding(h, down, kicker.block_area, brace.block_width,
+                                          brace.block_depth, top_soil_class,
+                                          brace.block_friction, sliding_factor_of_safety)
+        out.append(AnchorCheck(anchor, "kicker block on soil", "sliding", demand, cap, "N",
+                               "base friction + passive pressure (IBC 2021 Table 1806.2, "
+                               "§1806.3.1, from memory) / factor of safety", note=note,
+                               finding="sliding: the block slides; embed it or hold it"
+                               if demand > cap else ""))
     return out
 
 
@@ -280,7 +296,7 @@ def tree_checks(anchor: str, built, model: Model, state: State) -> list[AnchorCh
 
 def check_anchor(model: Model, built, state: State,
                  factor_of_safety: float = DEFAULT_FACTOR_OF_SAFETY,
-                 top_soil_class: str | None = None) -> AnchorReport:
+                 top_soil_class: str | None = None, settings=None) -> AnchorReport:
     """Every guy, brace and tree check of one anchor, its top displacement and shares."""
     from spanstay.models.common.cautions import TREE_CAUTIONS
 
@@ -291,7 +307,10 @@ def check_anchor(model: Model, built, state: State,
         checks += guy_checks(name, built.guys, model, state, factor_of_safety)
     b = built.brace
     if isinstance(b, BuiltKicker):
-        checks += kicker_checks(name, b, built, model, state, top_soil_class)
+        checks += kicker_checks(name, b, built, model, state, top_soil_class,
+                                sliding_factor_of_safety=getattr(
+                                    settings, "sliding_factor_of_safety",
+                                    DEFAULT_SLIDING_FACTOR_OF_SAFETY))
     elif isinstance(b, BuiltHBrace):
         rope = built.spec.brace.diagonal_rope
         checks += h_brace_checks(name, b, state, factor_of_safety,

@@ -109,7 +109,8 @@ def extra_anchor_checks(system: System, state: State) -> list[Check]:
     soil = top_soil_class(system.scenario.ground)
     out = []
     for anchor in system.anchors.values():
-        report = check_anchor(system.model, anchor, state, fos, soil)
+        report = check_anchor(system.model, anchor, state, fos, soil,
+                              settings=system.scenario.settings)
         for c in report.checks:
             note = "; ".join(t for t in (f"finding: {c.finding}" if c.finding else "", c.note) if t)
             out.append(Check(f"anchor.{c.anchor}.{slug(c.part)}.{slug(c.check)}", c.part,

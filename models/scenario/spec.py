@@ -191,6 +191,8 @@ class BraceSpec:
     grade: str | None = None                  # rail (default: the post's)
     block_width: float | None = None          # m, bearing block at the foot
     block_length: float | None = None         # m
+    block_depth: float = 0.0                  # m, block face embedded below grade (passive)
+    block_friction: float | None = None       # base friction coefficient; None: IBC Table 1806.2
     # h-brace
     second_post: PostSpec | None = None
     second_footing: FootingSpec | None = None  # None: same as the anchor's footing
