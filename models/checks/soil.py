@@ -85,6 +85,9 @@ def soil_checks(system: System, anchor, state: State, cache: dict | None = None)
     from spanstay.models.checks.vertical import vertical_checks
     cache = {} if cache is None else cache
     out += vertical_checks(system, anchor, state, cache)
+    if fs.kind == "pier":
+        from spanstay.models.checks.concrete import pier_checks
+        out += pier_checks(system, anchor, state, cache)
     V, M, ratio, _ = _ground_actions(system, placed, state)
     if has_soil_limit(placed) and V > 1.0:
         from spanstay.models.checks.lateral_capacity import lateral_capacity_check

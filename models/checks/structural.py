@@ -163,9 +163,9 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
         if spec.post.kind != "laminated" and (anchor.post_section or {}).get("ref") is None:
             out.append(NotChecked(name, "post stresses", "no species and grade given"))
         if spec.footing is not None and spec.footing.kind == "pier":
-            out.append(NotChecked(name, "the concrete pier itself (flexure, shear, "
-                                        "reinforcement, bearing of the post in the pier)",
-                                  "spanstay has no concrete pier check yet"))
+            out.append(NotChecked(name, "the post's bearing and embedment in its concrete pier, "
+                                        "and the pier's bar development",
+                                  "spanstay checks the pier's flexure and shear only"))
         if anchor.footing is not None:
             if not has_soil_limit(anchor.footing):
                 out.append(NotChecked(name, "soil utilization and the soil's ultimate lateral "

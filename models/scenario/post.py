@@ -30,7 +30,7 @@ POST_KEYS = ("kind", "height", "species", "grade", "nominal", "width", "depth", 
 FASTENER_KEYS = ("kind", "size", "diameter", "length", "spacing", "rows", "staggered",
                  "predrilled", "slip_modulus")
 FOOTING_KEYS = ("kind", "depth", "pier_diameter", "backfill", "base_spring", "soil",
-                "slab_at_grade", "double_lateral_bearing")
+                "slab_at_grade", "double_lateral_bearing", "concrete_strength", "reinforcement")
 
 
 def read_nominal(value: Any, where: str) -> tuple[float, float]:
@@ -212,7 +212,8 @@ def read_footing(table: Table) -> FootingSpec:
     kind = table.text("kind", choices=FOOTING_KINDS)
     if kind == "fixed":
         table.forbid(("depth", "pier_diameter", "backfill", "soil", "slab_at_grade",
-                      "double_lateral_bearing"), "to a fixed footing")
+                      "double_lateral_bearing", "concrete_strength", "reinforcement"),
+                     "to a fixed footing")
         return FootingSpec(kind=kind, depth=0.0, pier_diameter=None, backfill=None,
                            base_spring=table.quantity("base_spring", "rotational stiffness",
                                                       None, positive=True),
@@ -220,7 +221,8 @@ def read_footing(table: Table) -> FootingSpec:
     table.forbid(("base_spring",), f"to an {kind} footing (the soil is modelled)"
                  if kind == "embedded" else "to a pier footing (the soil is modelled)")
     if kind == "embedded":
-        table.forbid(("pier_diameter",), "to an embedded footing (use kind = \"pier\")")
+        table.forbid(("pier_diameter", "concrete_strength", "reinforcement"),
+                     "to an embedded footing (use kind = \"pier\")")
         pier, backfill = None, table.text("backfill", "native", BACKFILLS)
     else:
         table.forbid(("backfill",), "to a pier footing (the pier is concrete)")
@@ -228,7 +230,16 @@ def read_footing(table: Table) -> FootingSpec:
                               maximum=limits.PIER_DIAMETER_MAX)
         backfill = "concrete"
     soil = read_layers(table, "soil") if table.has("soil") else None
-    return FootingSpec(kind=kind, depth=table.quantity("depth", "length", positive=True,
+    concrete = {}
+    if kind == "pier":
+        from spanstay.models.scenario.pier_entry import (REINFORCEMENT_KEYS,
+                                                         read_concrete_strength,
+                                                         read_reinforcement)
+        concrete = dict(concrete_strength=read_concrete_strength(table),
+                        reinforcement=read_reinforcement(
+                            table.table("reinforcement", REINFORCEMENT_KEYS), pier))
+    return FootingSpec(**concrete,
+                       kind=kind, depth=table.quantity("depth", "length", positive=True,
                                                        maximum=limits.FOOTING_DEPTH_MAX),
                        pier_diameter=pier, backfill=backfill, base_spring=None, soil=soil,
                        slab_at_grade=table.flag("slab_at_grade", False),

@@ -3,7 +3,8 @@ each sourced or marked as our judgement there)."""
 from __future__ import annotations
 
 from spanstay.models.scenario.reader import Table
-from spanstay.models.scenario.spec import (DEFAULT_SLIDING_FACTOR_OF_SAFETY,
+from spanstay.models.scenario.spec import (DEFAULT_CONCRETE_LOAD_FACTOR,
+                                           DEFAULT_SLIDING_FACTOR_OF_SAFETY,
                                            DEFAULT_SOIL_FACTOR_OF_SAFETY,
                                            DEFAULT_TREE_FACTOR_OF_SAFETY,
                                            DEFAULT_UPLIFT_FACTOR_OF_SAFETY)
@@ -14,6 +15,7 @@ GROUND_SAFETY = {
     "uplift_factor_of_safety": DEFAULT_UPLIFT_FACTOR_OF_SAFETY,
     "sliding_factor_of_safety": DEFAULT_SLIDING_FACTOR_OF_SAFETY,
     "tree_factor_of_safety": DEFAULT_TREE_FACTOR_OF_SAFETY,
+    "concrete_load_factor": DEFAULT_CONCRETE_LOAD_FACTOR,
 }
 GROUND_SAFETY_KEYS = tuple(GROUND_SAFETY)
 

@@ -155,6 +155,19 @@ class FootingSpec:
     soil: tuple[SoilLayerSpec, ...] | None  # overrides [ground] soil for this footing
     slab_at_grade: bool              # constrained at grade (IBC 1807.3.2.2)
     double_lateral_bearing: bool     # IBC 1806.3.4 isolated-pole doubling
+    concrete_strength: float = 20.68e6  # Pa, f'c of a pier (3000 psi unless given)
+    reinforcement: "PierReinforcement | None" = None  # None: plain concrete pier
+
+
+@dataclass(frozen=True)
+class PierReinforcement:
+    """Longitudinal bars of a round pier, equally spaced on one circle."""
+
+    bars: int                        # number of bars
+    bar_diameter: float              # m
+    bar_area: float                  # m^2 per bar
+    cover: float                     # m, clear cover to the bars (ties left out)
+    yield_strength: float            # Pa
 
 
 @dataclass(frozen=True)
@@ -282,6 +295,7 @@ class Settings:
     uplift_factor_of_safety: float = 2.0   # on a footing's uplift resistance
     sliding_factor_of_safety: float = 1.5  # on a block's sliding resistance
     tree_factor_of_safety: float = 3.0     # on a tree stem's green strength
+    concrete_load_factor: float = 1.6      # on a pier's actions for ACI strength design
 
 
 @dataclass(frozen=True)
@@ -365,3 +379,7 @@ DEFAULT_SLIDING_FACTOR_OF_SAFETY = 1.5
 #: On a tree stem's green compression strength parallel to grain (a mean clear-wood
 #: value): our judgement, for the unknown decay and defects of a living stem.
 DEFAULT_TREE_FACTOR_OF_SAFETY = 3.0
+#: On a concrete pier's moment and shear for ACI 318 strength design: the live-load
+#: factor of the ASCE 7 strength combinations (1.2 D + 1.6 L), the line's pull taken as
+#: live load.
+DEFAULT_CONCRETE_LOAD_FACTOR = 1.6
