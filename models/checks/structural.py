@@ -89,13 +89,14 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
         second = getattr(getattr(anchor, "brace", None), "second", None)
         if second is not None:  # an H-brace's second post: its own post and footing checks
             out += anchor_part_checks(system, state, second, duration, cache)
-    out += extra_anchor_checks(system, state)
+    out += extra_anchor_checks(system, state, duration)
     for c in out:
         c.governing = dict(governing)
     return out
 
 
-def extra_anchor_checks(system: System, state: State) -> list[Check]:
+def extra_anchor_checks(system: System, state: State, duration: str = RIDER_DURATION
+                        ) -> list[Check]:
     """Guy, brace and tree checks of every anchor, from :mod:`models.checks.anchors`.
 
     Each ``AnchorCheck`` becomes a :class:`Check` with id
@@ -110,7 +111,7 @@ def extra_anchor_checks(system: System, state: State) -> list[Check]:
     out = []
     for anchor in system.anchors.values():
         report = check_anchor(system.model, anchor, state, fos, soil,
-                              settings=system.scenario.settings)
+                              settings=system.scenario.settings, duration=duration)
         for c in report.checks:
             note = "; ".join(t for t in (f"finding: {c.finding}" if c.finding else "", c.note) if t)
             out.append(Check(f"anchor.{c.anchor}.{slug(c.part)}.{slug(c.check)}", c.part,
@@ -157,8 +158,8 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
                                       "assess the tree and give it"))
             out.append(NotChecked(name, "the living tree as a whole (decay, species, health)",
                                   "only the root plate (against the given capacity) and the stem "
-                                  "stress (against green MOR) are checked: have an arborist "
-                                  "assess it"))
+                                  "compression (against green Fc / factor of safety) are "
+                                  "checked: have an arborist assess it"))
             continue
         if spec.post.kind != "laminated" and (anchor.post_section or {}).get("ref") is None:
             out.append(NotChecked(name, "post stresses", "no species and grade given"))
