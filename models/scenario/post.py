@@ -26,6 +26,7 @@ OVERRIDE_KEYS = {"E": "pressure", "G": "pressure", "Emin": "pressure", "Fb": "pr
                  "density": "density"}
 POST_KEYS = ("kind", "height", "species", "grade", "nominal", "width", "depth", "diameter",
              "top_diameter", "base_diameter", "plies", "ply", "stack", "fastener",
+             "incised", "conditioning",
              *OVERRIDE_KEYS)
 FASTENER_KEYS = ("kind", "size", "diameter", "length", "spacing", "rows", "staggered",
                  "predrilled", "slip_modulus")
@@ -173,8 +174,16 @@ def read_post(table: Table) -> PostSpec:
         for key, dim in OVERRIDE_KEYS.items()})
     height = table.quantity("height", "length", positive=True, minimum=limits.POST_HEIGHT[0],
                             maximum=limits.POST_HEIGHT[1])
+    from spanstay.models.catalogs.nds import CONDITION_TREATMENT
+    if kind != "round":
+        table.forbid(("conditioning",), "to a sawn or laminated post (it is the NDS Cct of "
+                     "round poles)")
+    else:
+        table.forbid(("incised",), "to a round pole (its treatment factor is conditioning)")
     common = dict(kind=kind, height=height,
-                  species=None, grade=None, overrides=overrides)
+                  species=None, grade=None, overrides=overrides,
+                  incised=table.flag("incised", False),
+                  conditioning=table.text("conditioning", None, tuple(CONDITION_TREATMENT)))
     if kind == "sawn":
         if table.one_of(("nominal", "width"), required=True) == "nominal":
             table.forbid(("depth",), 'with "nominal" (give width and depth instead)')

@@ -85,6 +85,8 @@ class PostSpec:
     stack_angle_deg: float | None = None
     fastener: FastenerSpec | None = None
     overrides: MaterialOverrides = field(default_factory=MaterialOverrides)
+    incised: bool = False            # preservative-treated incised sawn lumber (NDS Ci)
+    conditioning: str | None = None  # round pole conditioning before treatment (NDS Cct)
 
     @property
     def outline(self) -> tuple[float, float]:
