@@ -3,9 +3,10 @@
 A stated simple model: the toe is held vertically in the model (settlement is not
 modelled), and the vertical reaction found there is checked afterwards.
 
-- End bearing: (toe reaction + weight of the pier + weight of the post) / base area
-  against the IBC Table 1806.2 presumptive vertical pressure of the layer at the toe.
-  Side friction is not counted in bearing (on the safe side). The post's weight uses
+- Bearing: toe reaction + weight of the pier + weight of the post against the IBC
+  Table 1806.2 presumptive vertical pressure of the layer at the toe x the base area,
+  plus the side friction below / ``settings.uplift_factor_of_safety`` (the same
+  friction and factor as for uplift). The post's weight uses
   800 kg/m^3 (wet treated timber, an upper value from memory); a pier's, normalweight
   concrete 23.6 kN/m^3 (150 pcf, common practice).
 - Uplift: the pull out of the ground (downward toe reaction) against the pier's weight
@@ -106,13 +107,19 @@ def vertical_checks(system, anchor, state: State, cache: dict) -> list[Check]:
     r = float(state.reactions[placed.toe_node, 2])  # upward on the footing: it bears
     out = []
     if ibc is not None:
-        q = max(r + pier + post_w, 0.0) / area
+        load = max(r + pier + post_w, 0.0)
+        q = vertical_bearing(ibc)
         out.append(Check(f"anchor.{name}.footing.end_bearing", "footing", name,
-                         "bearing pressure under the toe against the presumptive bearing",
-                         q, vertical_bearing(ibc), "stress",
-                         source=f"{SOURCE}, class {ibc} at the toe",
-                         note=f"toe reaction {r:.4g} N + pier {pier:.4g} N + post {post_w:.4g} N "
-                              f"on {area:.4g} m^2; side friction not counted"))
+                         "load down the footing against presumptive end bearing x base area + "
+                         "side friction / factor of safety", load, q * area + friction / fos,
+                         "force",
+                         source=f"{SOURCE}, class {ibc} at the toe; side friction as for "
+                                f"uplift, factor of safety {fos:g} "
+                                "(settings.uplift_factor_of_safety)",
+                         note=f"toe reaction {r:.4g} N + pier {pier:.4g} N + post {post_w:.4g} N; "
+                              f"end bearing {q * area:.4g} N on {area:.4g} m^2 "
+                              f"(pressure {load / area:.4g} Pa if the toe carried it all), side "
+                              f"friction {friction:.4g} N"))
     pull = max(-r, 0.0)
     out.append(Check(f"anchor.{name}.footing.uplift", "footing", name,
                      "pull out of the ground against the pier's weight + side friction / "

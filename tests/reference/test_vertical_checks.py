@@ -2,7 +2,8 @@
 
 Sources:
 - Vertical equilibrium of a pier held at its toe (statics): the toe reaction equals the
-  vertical load at grade; bearing = (P + pier weight + post weight) / base area.
+  vertical load at grade; the load down the footing is P + pier weight + post weight,
+  against presumptive bearing x base area + side friction / factor of safety.
 - IBC Table 1806.2 presumptive vertical pressure: sand 2,000 psf, clay 1,500 psf.
 - Side friction, integrated by hand: sand f = (1 - sin phi) gamma z tan(phi) (Jaky K0,
   delta = phi for concrete cast against soil), clay f = alpha c with API RP 2A
@@ -42,6 +43,12 @@ def _run(vertical: float):
     return {c.id.rsplit(".", 1)[1]: c for c in vertical_checks(system, anchor, state, {})}
 
 
+def _sand_friction():
+    # friction from 1.5 D = 0.9 m to 2.0 m: pi D (1 - sin phi) tan phi gamma (L^2 - z0^2) / 2
+    z0, ph = 1.5 * D, math.radians(PHI)
+    return math.pi * D * (1 - math.sin(ph)) * math.tan(ph) * GAMMA * (L**2 - z0**2) / 2
+
+
 def test_pier_bearing_by_statics():
     p = 40e3
     checks = _run(-p)
@@ -49,9 +56,10 @@ def test_pier_bearing_by_statics():
     pier = CONCRETE_UNIT_WEIGHT * area * L
     post = TIMBER_DENSITY_UPPER * 9.80665 * math.pi * 0.25**2 / 4 * 3.0
     bearing = checks["end_bearing"]
-    assert bearing.demand == pytest.approx((p + pier + post) / area, rel=1e-6)
-    assert bearing.capacity == pytest.approx(2000 * PSF, rel=1e-9)
-    assert not bearing.passed  # 40 kN on 0.28 m^2 is about 150 kPa > 96 kPa
+    assert bearing.demand == pytest.approx(p + pier + post, rel=1e-6)
+    # 2000 psf x 0.283 m^2 = 27.1 kN, + 8.2 kN / 2 of friction
+    assert bearing.capacity == pytest.approx(2000 * PSF * area + _sand_friction() / 2, rel=1e-3)
+    assert not bearing.passed  # about 54 kN down against 31 kN
     assert checks["uplift"].demand == 0.0
 
 
@@ -60,10 +68,7 @@ def test_pier_uplift_by_statics_and_hand_friction():
     checks = _run(+pull)
     up = checks["uplift"]
     assert up.demand == pytest.approx(pull, rel=1e-6)
-    # friction from 1.5 D = 0.9 m to 2.0 m: pi D (1 - sin phi) tan phi gamma (L^2 - z0^2) / 2
-    z0 = 1.5 * D
-    ph = math.radians(PHI)
-    qs = math.pi * D * (1 - math.sin(ph)) * math.tan(ph) * GAMMA * (L**2 - z0**2) / 2
+    qs = _sand_friction()
     pier = CONCRETE_UNIT_WEIGHT * math.pi * D**2 / 4 * L
     assert up.capacity == pytest.approx(pier + qs / 2.0, rel=1e-3)
     assert not up.passed  # 30 kN against about 13.3 kN + 4.1 kN
