@@ -140,6 +140,17 @@ def anchor_part_checks(system: System, state: State, anchor, duration: str = RID
     return out
 
 
+def _anchors_and_second_posts(system: System) -> list:
+    """Every anchor, each followed by its H-brace's second post (which has its own footing)."""
+    out = []
+    for anchor in system.anchors.values():
+        out.append(anchor)
+        second = getattr(getattr(anchor, "brace", None), "second", None)
+        if second is not None:
+            out.append(second)
+    return out
+
+
 def unchecked_parts(system: System, states=()) -> list[NotChecked]:
     """What ``structural_checks`` does not check in this system, each with its reason.
 
@@ -147,9 +158,14 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
     against its p-y limit, reported with the soil's capacity item.
     """
     out: list[NotChecked] = []
-    for anchor in system.anchors.values():
+    for anchor in _anchors_and_second_posts(system):
         spec = anchor.spec
         name = f"anchor '{spec.name}'"
+        brace = getattr(anchor, "brace", None)
+        if getattr(brace, "kind", None) == "kicker" and brace.block_area is None:
+            out.append(NotChecked(name, "the kicker foot's bearing and sliding on the soil",
+                                  "no block_width and block_length given: the foot is held "
+                                  "rigidly in the model"))
         if spec.kind == "tree":
             tree = spec.tree
             if tree is None or tree.root_plate_capacity is None:
