@@ -23,6 +23,8 @@ class PlanarSpringGroup(ElementGroup):
     """
 
     kind = "planar spring"
+    #: the force it carries comes from the ground: it counts in the reactions
+    to_ground = True
 
     def __init__(self, name: str, nodes: np.ndarray, law: SpringLaw) -> None:
         self.name = name

@@ -42,6 +42,10 @@ def _solve_at(profile, angle_deg: float, load: float, loading: str = "static"):
     a = math.radians(angle_deg)
     m.add_load(node, [load * math.cos(a), load * math.sin(a), 0, 0, 0, 0])
     state = solve(m, factor=1.0, steps=8)
+    # statics: the ground's reactions (toe support and soil springs) balance the load
+    total = state.reactions[:, :3].sum(axis=0)
+    assert total[:2] == pytest.approx([-load * math.cos(a), -load * math.sin(a)],
+                                      abs=1e-6 * load)
     resp = footing_response(placed, m, state, (math.cos(a), math.sin(a)))
     return resp, float(np.hypot(*state.translation[node][:2]))
 

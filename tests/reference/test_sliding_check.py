@@ -44,14 +44,17 @@ def test_block_sliding_by_hand():
     assert PSF > 0
 
 
-def test_kicker_block_push_follows_the_strut_axis():
+@pytest.mark.parametrize("deadman", [True, False])
+def test_kicker_block_push_follows_the_strut_axis(deadman):
     data = tomllib.loads((ROOT / "examples" / "h-brace.toml").read_text("utf-8"))
+    brace = data["anchor"][1]["brace"]
+    if not deadman:  # the block on the surface
+        del brace["block_depth"]
     r = spanstay.analyse(data, stations=3, slack_budget=False, workers=1)
     from spanstay.models.parts.braces import member_axial_force
 
     system = r.design_system or r.system
-    landing = system.anchors["landing"]
-    kicker = landing.brace
+    kicker = system.anchors["landing"].brace
     state = r.passes["design"].states[-1]
     c = -float(np.min(member_axial_force(state, kicker.strut)))
     theta = np.arcsin(abs(kicker.strut.axis[2]))
@@ -59,7 +62,11 @@ def test_kicker_block_push_follows_the_strut_axis():
     assert h == pytest.approx(c * np.cos(theta), rel=2e-3)
     assert down == pytest.approx(c * np.sin(theta), rel=2e-3)
     (check,) = [k for k in r.checks if k.id == "anchor.landing.kicker_block_on_soil.sliding"]
-    # whatever the state, a two-force strut on sand (0.25, top layer class 4) needs
-    # FoS x cot(theta) / 0.25 of its friction
-    assert check.utilization == pytest.approx(1.5 / (0.25 * np.tan(theta)), rel=2e-3)
-    assert not check.passed
+    # a two-force strut pushes down h tan(theta) with its push h: on sand (0.25, class 4)
+    # the block holds (0.25 h tan(theta) + passive) / 1.5, the passive force of a 36 in
+    # block 3 ft deep 0.5 x 150 psf/ft x (3 ft)^2 x 3 ft = 2,025 lbf
+    passive = 2025 * LBF if deadman else 0.0
+    hd = check.demand
+    assert check.utilization == pytest.approx(
+        hd / ((0.25 * hd * np.tan(theta) + passive) / 1.5), rel=2e-3)
+    assert check.passed == deadman
