@@ -149,10 +149,10 @@ def pier_checks(system, anchor, state, cache: dict) -> list[Check]:
             "ASCE 7 live load)")
     return [
         Check(f"anchor.{name}.pier.flexure", "pier", name,
-              "factored bending moment in the concrete pier against phi M_n", factor * m, phi_m,
+              f"bending moment x {factor:g} in the concrete pier against phi M_n", factor * m, phi_m,
               "moment", source=how, note=("finding: " + over + "; " if factor * m > phi_m
                                           else "") + load),
         Check(f"anchor.{name}.pier.shear", "pier", name,
-              "factored shear in the concrete pier against phi V_n", factor * v, phi_v,
+              f"shear x {factor:g} in the concrete pier against phi V_n", factor * v, phi_v,
               "force", source=how, note=load),
     ]

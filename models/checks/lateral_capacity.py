@@ -43,8 +43,8 @@ def lateral_capacity_check(anchor, shear: float, moment: float, p_ratio: float,
     loading = sorted({lay.loading for lay in placed.profile.layers
                       if lay.top < placed.footing.depth})
     return Check(f"anchor.{name}.footing.lateral_capacity", "footing", name,
-                 "design shear at grade against the soil's ultimate lateral load / factor of "
-                 "safety", shear, ultimate / factor_of_safety, "force",
+                 "design shear at grade against the soil's ultimate lateral load / "
+                 f"{factor_of_safety:g}", shear, ultimate / factor_of_safety, "force",
                  source="pushover of the embedded part on the run's p-y curves ("
                         + " and ".join(loading) + "), load at e = M/V; factor of safety "
                         f"{factor_of_safety:g} (settings.soil_factor_of_safety; default 2.5, "

@@ -111,7 +111,7 @@ def vertical_checks(system, anchor, state: State, cache: dict) -> list[Check]:
         q = vertical_bearing(ibc)
         out.append(Check(f"anchor.{name}.footing.end_bearing", "footing", name,
                          "load down the footing against presumptive end bearing x base area + "
-                         "side friction / factor of safety", load, q * area + friction / fos,
+                         f"side friction / {fos:g}", load, q * area + friction / fos,
                          "force",
                          source=f"{SOURCE}, class {ibc} at the toe; side friction as for "
                                 f"uplift, factor of safety {fos:g} "
@@ -123,7 +123,7 @@ def vertical_checks(system, anchor, state: State, cache: dict) -> list[Check]:
     pull = max(-r, 0.0)
     out.append(Check(f"anchor.{name}.footing.uplift", "footing", name,
                      "pull out of the ground against the pier's weight + side friction / "
-                     "factor of safety", pull, pier + friction / fos, "force",
+                     f"{fos:g}", pull, pier + friction / fos, "force",
                      source="own weight + side friction (K0 tan delta sigma'_v in sand, API "
                             "alpha c_u in clay, from memory); factor of safety "
                             f"{fos:g} on friction (settings.uplift_factor_of_safety; default 2, "
