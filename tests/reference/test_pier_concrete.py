@@ -80,3 +80,33 @@ def test_beta1_table():
     assert beta1(5000 * PSI) == pytest.approx(0.80)
     assert beta1(9000 * PSI) == pytest.approx(0.65)
     assert math.isfinite(beta1(4000 * PSI))
+
+
+def test_pier_check_demand_by_statics():
+    # a lateral load H at height e on a pier: the moment just below grade is H e
+    # (statics) and the largest moment down the pier lies between H e and H (e + L);
+    # the check multiplies it by the load factor (ASCE 7 live, 1.6)
+    from types import SimpleNamespace as NS
+
+    from spanstay.fem import solve
+    from spanstay.models.catalogs.soil import SoilProfile, preset_layer
+    from spanstay.models.checks.concrete import pier_checks
+    from spanstay.models.parts.footing import Footing, concrete_pier_section
+    from spanstay.models.parts.footing_case import FootingCase, build_case_model
+
+    D, L, e, H = 0.6, 2.4, 1.5, 12e3
+    soil = SoilProfile((preset_layer("medium_dense_sand", 0.0, 4.0),))
+    footing = Footing(L, D, concrete_pier_section(D), kind="pier", elements=30)
+    m, placed, node = build_case_model(FootingCase(footing, soil, H, e,
+                                                   post_section=concrete_pier_section(0.3)))
+    m.add_load(node, [H, 0, 0, 0, 0, 0])
+    state = solve(m, factor=1.0, steps=4)
+    anchor = NS(footing=placed, spec=NS(name="p", footing=NS(
+        pier_diameter=D, concrete_strength=3000 * PSI, reinforcement=None)))
+    system = NS(model=m, scenario=NS(settings=NS(concrete_load_factor=1.6)))
+    flex, shear = pier_checks(system, anchor, state, {})
+    assert H * e * 1.6 <= flex.demand * (1 + 1e-6) <= H * (e + L) * 1.6
+    assert flex.capacity == pytest.approx(plain_strength(D, 3000 * PSI)[0])
+    # at least 1.6 x 18 kN m against phi M_n = 18.4 kN m (by hand as above): it fails
+    assert not flex.passed and "plain concrete pier over capacity: reinforce" in flex.note
+    assert shear.demand >= H * 1.6 * (1 - 1e-6)  # the shear just below grade is H

@@ -86,20 +86,25 @@ def test_planar_tangent_is_the_derivative_of_its_force():
 
 def _turned(data: dict, angle_deg: float) -> dict:
     """The scenario turned about the origin in plan: positions and plan directions."""
+    from spanstay.models.common.units import parse_quantity
+
     a = math.radians(angle_deg)
     for anchor in data["anchor"]:
-        x, y = (spanstay.models.common.units.parse_quantity(v, "length", "test")
-                for v in anchor["position"])
+        x, y = (parse_quantity(v, "length", "test") for v in anchor["position"])
         anchor["position"] = [f"{x * math.cos(a) - y * math.sin(a)!r} m",
                               f"{x * math.sin(a) + y * math.cos(a)!r} m"]
+        for table in anchor.get("guy", []) + [anchor.get("brace", {})]:
+            if "direction" in table:
+                turned = math.degrees(parse_quantity(table["direction"], "angle", "test"))
+                table["direction"] = f"{turned + angle_deg!r} deg"
     return data
 
 
-def test_a_scenario_turned_in_plan_changes_nothing_but_coordinates():
-    data = tomllib.loads((ROOT / "examples" / "orchard-family-line.toml").read_text("utf-8"))
-    base = spanstay.analyse(tomllib.loads(
-        (ROOT / "examples" / "orchard-family-line.toml").read_text("utf-8")),
-        stations=4, slack_budget=False, workers=1)
+@pytest.mark.parametrize("example", ["orchard-family-line.toml", "guyed-post.toml"])
+def test_a_scenario_turned_in_plan_changes_nothing_but_coordinates(example):
+    text = (ROOT / "examples" / example).read_text("utf-8")
+    data = tomllib.loads(text)
+    base = spanstay.analyse(tomllib.loads(text), stations=4, slack_budget=False, workers=1)
     turned = spanstay.analyse(_turned(data, 45.0), stations=4, slack_budget=False, workers=1)
     for name, p in base.passes.items():
         q = turned.passes[name]
