@@ -110,11 +110,16 @@ def summary_text(scenario: Scenario, units: str) -> str:
                    f"feet {show(r.hang_distance, 'length', units)} below the cable, "
                    f"{r.stations} stations")
     ground = scenario.ground
-    soil = ", ".join(layer.kind for layer in ground.soil) or "none described"
+    soil = ", ".join(f"{layer.kind} ({layer.loading} p-y)" for layer in ground.soil) \
+        or "none described"
     depth = (f" to {show(ground.soil[-1].bottom, 'length', units)}" if ground.soil else "")
     out.append(f"ground: {len(ground.profile)} profile points; soil: {soil}{depth}")
     temps = ", ".join(show(t, "temperature", units) for t in s.use_temperatures)
     out.append(f"settings: factor of safety {s.factor_of_safety:g}, installed at "
                f"{show(s.install_temperature, 'temperature', units)}, used at {temps}")
+    out.append(f"ground factors of safety: soil lateral {s.soil_factor_of_safety:g}, uplift "
+               f"{s.uplift_factor_of_safety:g}, sliding {s.sliding_factor_of_safety:g}, tree "
+               f"stem {s.tree_factor_of_safety:g}; concrete load factor "
+               f"{s.concrete_load_factor:g}")
     out.append(f"caution: {CAUTIONS}")
     return "\n".join(out)
