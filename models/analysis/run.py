@@ -10,7 +10,9 @@ import numpy as np
 
 from spanstay.fem import State
 from spanstay.models.analysis.installed import install
-from spanstay.models.analysis.load_cases import LoadCase, load_cases, needs_ultimate_slip
+from spanstay.models.analysis.arrival import Stops, arrival_stops
+from spanstay.models.analysis.load_cases import (LoadCase, load_cases, needs_ultimate_slip,
+                                                 stop_cases)
 from spanstay.models.analysis.clearance import Clearance, feet_clearance
 from spanstay.models.analysis.ride import RideResult, ride_speed
 from spanstay.models.analysis.parallel import default_workers, run_cases
@@ -40,6 +42,7 @@ class RunResult:
     design_system: System | None = None     # laminated posts with K_u (else the same system)
     design_installed: State | None = None
     cases: tuple[LoadCase, ...] = ()
+    stops: Stops | None = None              # the brake's stop and the emergency arrest
 
 
 def structures(scenario: Scenario) -> dict[str, Structure]:
@@ -87,6 +90,12 @@ def analyse(scenario: Scenario, stations: int | None = None,
                        coords[rider.line], passes, design_system=strength.system,
                        design_installed=strength.installed, cases=cases)
     _ride(result)
+    result.stops = arrival_stops(scenario, result.rides)
+    more = stop_cases(scenario, result.stops.stop_force, result.stops.arrest_force)
+    if more:  # one station each, at the ride's end: after the rides that give the speed
+        end = {rider.line: coords[rider.line][-1:]}
+        passes.update(run_cases(built, more, end, min(n_workers, len(more)), progress))
+        result.cases = cases + more
     if slack_budget and passes["ride_heavy"].complete:
         from spanstay.models.analysis.slack_budget import slack_budget as budget
         result.slack = budget(result)
@@ -94,7 +103,8 @@ def analyse(scenario: Scenario, stations: int | None = None,
 
 
 def pass_count(scenario: Scenario) -> int:
-    """How many rider passes a run makes (for a progress bar)."""
+    """How many rider passes a run makes (for a progress bar; the stop and arrest
+    passes, one station each, are not counted)."""
     return len(load_cases(scenario))
 
 
@@ -128,7 +138,14 @@ def _ride(result: RunResult) -> None:
             result.clearance = None
             return
         along, z = _profile(p)
-        c = feet_clearance(along, z, rider.hang_distance, gd, gz)
+        c = feet_clearance(along, z, longest_hang(result.scenario), gd, gz)
         if worst is None or c.minimum < worst.minimum:
             worst = c
     result.clearance = worst
+
+
+def longest_hang(scenario: Scenario) -> float:
+    """The longest hang distance (cable to feet) of the ride's range, or the rider's."""
+    hang = scenario.ride.hang_distance
+    return scenario.rider.hang_distance if hang is None else max(hang[1],
+                                                                  scenario.rider.hang_distance)

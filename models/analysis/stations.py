@@ -56,7 +56,8 @@ class Pass:
         return self.failed_at is None
 
 
-def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float) -> State:
+def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float,
+                push: float = 0.0) -> State:
     """Move the rider node to arc coordinate ``s`` and return a warm start.
 
     The predictor keeps the strain of every segment: the rider point goes
@@ -65,6 +66,8 @@ def place_rider(system: System, line: BuiltLine, state: State, s: float, weight:
     and each side is mapped onto its new chord by a similarity (rotation and
     uniform scale), so its segments stretch as their unstressed lengths do. Moving nodes along the old polyline instead would cut across the
     rider's kink and leave segments slack, which Newton handles badly.
+
+    ``push`` is a horizontal force on the rider toward the line's end (a stop).
     """
     model = system.model
     nodes, k = line.nodes, line.k
@@ -90,7 +93,9 @@ def place_rider(system: System, line: BuiltLine, state: State, s: float, weight:
     warm.translation[inner] = new[1:-1] - model.coords[inner]
     model.group(line.group).L0[:] = line.segment_lengths(s)
     line.rider_s = s
-    model.set_load(line.rider_node, [0.0, 0.0, -weight])
+    plan = line.end_xyz[:2] - line.start_xyz[:2]
+    ex, ey = push * plan / np.linalg.norm(plan)
+    model.set_load(line.rider_node, [float(ex), float(ey), -weight])
     return warm
 
 
@@ -136,8 +141,9 @@ def record(system: System, state: State, line: BuiltLine) -> StationResult:
 
 def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.ndarray,
              weight: float, label: str, temperature: float, keep_states: bool = False,
-             progress: Callable[[], None] | None = None) -> Pass:
-    """Solve the rider at every arc coordinate in ``stations_s`` (in order)."""
+             progress: Callable[[], None] | None = None, push: float = 0.0) -> Pass:
+    """Solve the rider at every arc coordinate in ``stations_s`` (in order); ``push``
+    is a horizontal force on the rider toward the line's end (a stop)."""
     result = Pass(label, weight, temperature)
     state = installed
     line.rider_s = None
@@ -145,7 +151,7 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
     cable.L0[:] = line.segment_lengths(None)  # the installed state's even division
     first = True
     for s in stations_s:
-        warm = place_rider(system, line, state, float(s), weight)
+        warm = place_rider(system, line, state, float(s), weight, push)
         try:
             state = solve(system.model, state=warm, steps=4 if first else 1,
                           options=STATION_OPTIONS)

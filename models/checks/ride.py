@@ -8,11 +8,12 @@ import math
 from spanstay.models.checks.check import Check
 from spanstay.models.checks.verdict import NotChecked
 
-#: smallest clearance of the rider's feet over the ground: a judgement of ours
-MIN_CLEARANCE = 0.15
-#: largest arrival speed at the far end: a judgement of ours for a line without a
-#: braking system; set your own with the brake you use
-MAX_ARRIVAL_SPEED = 5.0
+from spanstay.models.scenario.spec import DEFAULT_MIN_FEET_CLEARANCE, WALKING_PACE
+
+#: smallest clearance of the rider's feet over the ground (default of [ride]; our judgement)
+MIN_CLEARANCE = DEFAULT_MIN_FEET_CLEARANCE
+#: largest arrival speed with no brake: walking pace (default of [ride]; our judgement)
+MAX_ARRIVAL_SPEED = WALKING_PACE
 
 
 def _stopped(result, name: str) -> str | None:
@@ -27,10 +28,21 @@ def _stopped(result, name: str) -> str | None:
     return None
 
 
-def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
-                max_arrival_speed: float = MAX_ARRIVAL_SPEED
+def ride_checks(result, min_clearance: float | None = None,
+                max_arrival_speed: float | None = None
                 ) -> tuple[list[Check], list[NotChecked]]:
-    """The ride checks that could be made, and the ride items that could not."""
+    """The ride checks that could be made, and the ride items that could not.
+
+    The limits are the scenario's ``[ride]`` values (with their sources) unless given.
+    """
+    limits = result.scenario.ride
+    speed_source = (f"[ride] arrival_speed_limit: {limits.source('arrival_speed_limit')} "
+                    f"(brake: {limits.brake.kind})")
+    clear_source = f"[ride] min_feet_clearance: {limits.source('min_feet_clearance')}"
+    if max_arrival_speed is None:
+        max_arrival_speed = limits.arrival_speed_limit
+    if min_clearance is None:
+        min_clearance = limits.min_feet_clearance
     out: list[Check] = []
     missing: list[NotChecked] = []
     line = result.scenario.rider.line
@@ -62,8 +74,7 @@ def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
                 governing={"pass": "ride_heavy" if worst is heavy else "ride_light",
                            "rider_weight": None, "station": None,
                            "along": float(worst.distance[-1])},
-                source="a judgement of ours for a line without a brake; set your own with the "
-                       "brake you use"))
+                source=speed_source))
         else:
             missing.append(NotChecked("ride", "the arrival speed",
                                       "no rider reaches the far end (see the arrival check)"))
@@ -80,8 +91,7 @@ def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
             utilization=min_clearance / c.minimum if c.minimum > 0 else math.inf,
             governing={"pass": "ride_heavy/hot", "rider_weight": result.passes["ride_heavy"].weight,
                        "station": None, "along": c.minimum_distance},
-            source="a judgement of ours (smallest clearance of the feet, heaviest rider, hottest "
-                   "day)",
+            source=clear_source + " (heaviest rider, installed and hottest day, longest hang)",
             note=f"smallest clearance {c.minimum:.2f} m"))
     else:
         missing.append(NotChecked("ride", "the feet clearance over the ground",

@@ -95,17 +95,17 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
     return out
 
 
-def extra_anchor_checks(system: System, state: State) -> list[Check]:
+def extra_anchor_checks(system: System, state: State, fos: float | None = None) -> list[Check]:
     """Guy, brace and tree checks of every anchor, from :mod:`models.checks.anchors`.
 
     Each ``AnchorCheck`` becomes a :class:`Check` with id
     ``anchor.<name>.<part>.<check>`` (lower case, words joined by "_"); a
     finding (slack guy, pulled-out ground anchor, lifting block) is put in
-    front of the note.
+    front of the note. ``fos`` replaces the scenario's factor of safety on ropes.
     """
     from spanstay.models.checks.anchors import check_anchor, top_soil_class
 
-    fos = float(system.scenario.settings.factor_of_safety)
+    fos = float(system.scenario.settings.factor_of_safety if fos is None else fos)
     soil = top_soil_class(system.scenario.ground)
     out = []
     for anchor in system.anchors.values():

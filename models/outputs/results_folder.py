@@ -126,6 +126,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
 
     from spanstay.models.analysis.installed import end_tensions, measured_sag
     from spanstay.models.analysis.anchor_shares import anchor_shares
+    from spanstay.models.outputs.ride_limits_text import ride_limit_lines, stop_lines
 
     try:
         ver = version("spanstay")
@@ -153,6 +154,11 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "verdict": result.verdict.to_dict() if result.verdict is not None else None,
         "load_shares": anchor_shares(result) if result.passes["design"].complete else {},
         "checks": [c.to_dict() for c in result.checks],
+        "ride_limits": {"settings": sc.ride, "sources": dict(sc.ride.sources),
+                        "use_temperatures_default": sc.settings.use_temperatures_default,
+                        "text": ride_limit_lines(sc, units),
+                        "stop_text": stop_lines(getattr(result, "stops", None), units)},
+        "stops": result.stops.to_dict() if getattr(result, "stops", None) is not None else None,
         "model": {
             "parts": _parts(system),
             "anchors": {n: {"grade_xyz": [a.spec.x, a.spec.y, a.spec.grade], "top_node": a.top_node,

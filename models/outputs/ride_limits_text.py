@@ -1,0 +1,66 @@
+"""The ride's limits, brake, stops and temperatures of use as lines of text, each default
+with its source (shared by the terminal summary and the report)."""
+from __future__ import annotations
+
+from spanstay.models.common.units import STANDARD_GRAVITY, show
+
+
+def brake_words(brake, units: str) -> str:
+    """A brake or end stop in a phrase."""
+    if brake.kind == "none":
+        return "none"
+    if brake.kind == "gravity":
+        return "gravity (the line ends uphill)"
+    where = "on the cable" if brake.acts_on == "cable" else "tied off to the end anchor"
+    if brake.kind == "rated":
+        return (f"rated by its maker: {show(brake.rated_speed, 'speed', units)}, "
+                f"{show(brake.rated_energy, 'energy', units)}, peak force "
+                f"{show(brake.peak_force, 'force', units)}, stroke "
+                f"{show(brake.stroke, 'length', units)}, {where}")
+    law = (f"stiffness {show(brake.stiffness, 'stiffness', units)}" if brake.stiffness is not None
+           else f"a force-stroke curve of {len(brake.curve) - 1} points")
+    return f"{brake.kind}, {law}, stroke {show(brake.stroke, 'length', units)}, {where}"
+
+
+def ride_limit_lines(scenario, units: str) -> list[str]:
+    """The [ride] settings in force, each with where it comes from."""
+    r = scenario.ride
+    hang = (f"{show(r.hang_distance[0], 'length', units)} to "
+            f"{show(r.hang_distance[1], 'length', units)}" if r.hang_distance is not None
+            else show(scenario.rider.hang_distance, "length", units))
+    s = scenario.settings
+    temps = ", ".join(show(t, "temperature", units) for t in s.use_temperatures)
+    t_src = ("default: installation +/- 25 K (our judgement), no use_temperatures given"
+             if s.use_temperatures_default else "given")
+    lines = [
+        f"brake: {brake_words(r.brake, units)} ({r.source('brake')})",
+        f"end stop (brake missed): "
+        + (brake_words(r.end_stop, units) + " (given)" if r.end_stop is not None else "none given"),
+        f"arrival speed limit {show(r.arrival_speed_limit, 'speed', units)} "
+        f"({r.source('arrival_speed_limit')})",
+        f"largest deceleration at the stop {r.max_deceleration / STANDARD_GRAVITY:.2g} g "
+        f"({r.source('max_deceleration')})",
+        f"smallest feet clearance {show(r.min_feet_clearance, 'length', units)} "
+        f"({r.source('min_feet_clearance')})",
+        f"hang distance {hang} ({r.source('hang_distance')})",
+        f"temperatures of use {temps} ({t_src})",
+    ]
+    return lines
+
+
+def stop_lines(stops, units: str) -> list[str]:
+    """Each rider's stop by the brake and by the end stop."""
+    if stops is None:
+        return []
+    out = []
+    for label, items in (("stop", stops.brake), ("arrest", stops.arrest)):
+        for s in items:
+            out.append(f"{label}, {s.rider} rider at {show(s.speed, 'speed', units)}: peak force "
+                       f"{show(s.peak_force, 'force', units)}, deceleration "
+                       f"{s.deceleration / STANDARD_GRAVITY:.2f} g, stroke "
+                       f"{show(s.stroke_used, 'length', units)} of "
+                       f"{show(s.stroke_available, 'length', units)}"
+                       + (" (BOTTOMS OUT)" if s.bottoms_out else ""))
+    for what, why in stops.why_not.items():
+        out.append(f"{what}: not computed: {why}")
+    return out

@@ -1,0 +1,132 @@
+"""The stop and the emergency arrest as load cases solved with the whole structure;
+a line that would hurt someone at the stop fails; the outputs show the brake."""
+from __future__ import annotations
+
+import tomllib
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+import spanstay
+from spanstay.models.outputs.terminal import summary_lines
+
+EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "orchard-family-line.toml"
+G = 9.80665
+
+
+def scenario(ride):
+    d = tomllib.loads(EXAMPLE.read_text())
+    d.pop("ride", None)
+    if ride is not None:
+        d["ride"] = ride
+    return spanstay.load(d)
+
+
+@pytest.fixture(scope="module")
+def bumper():
+    # a 0.1 m rubber bumper as the only brake (invented): hurts the rider
+    return spanstay.analyse(scenario({
+        "brake": {"kind": "spring", "stiffness": "300 kN/m", "stroke": "0.1 m"}}),
+        stations=6, slack_budget=False, workers=1)
+
+
+@pytest.fixture(scope="module")
+def block():
+    # a stop block on a short stiff spring (invented): the structure holds, the rider
+    # is stopped at about 5 g (heaviest) and 9 g (lightest)
+    return spanstay.analyse(scenario({
+        "brake": {"kind": "spring", "stiffness": "10 kN/m", "stroke": "0.6 m"},
+        "end_stop": {"kind": "spring", "stiffness": "60 kN/m", "stroke": "0.3 m",
+                     "acts_on": "end-anchor"}}), stations=6, slack_budget=False, workers=1)
+
+
+@pytest.fixture(scope="module")
+def no_ride_table():
+    return spanstay.analyse(scenario(None), stations=6, slack_budget=False, workers=1)
+
+
+def by_id(result):
+    return {c.id: c for c in result.checks}
+
+
+def test_a_bumper_stop_never_passes(bumper):
+    checks = by_id(bumper)
+    decel = checks["ride.stop.deceleration"]
+    assert not decel.passed
+    assert bumper.verdict.status != "pass" and bumper.verdict.exit_code != 0
+    # independent closed form, mass on a linear spring: a_peak = v sqrt(k / m)
+    worst = max(bumper.stops.brake, key=lambda s: s.deceleration)
+    assert decel.demand == pytest.approx(worst.speed * np.sqrt(300e3 / worst.mass), rel=1e-9)
+    assert decel.demand / G > 20
+
+
+def test_a_short_stop_block_fails_at_the_stop(block):
+    checks = by_id(block)
+    assert block.verdict.status == "fail" and not block.verdict.incomplete
+    decel = checks["ride.stop.deceleration"]
+    assert not decel.passed and decel.capacity == pytest.approx(2 * G)
+    # m v^2 / 2 = k x^2 / 2 (work-energy theorem): stroke of the heaviest rider
+    heavy = next(s for s in block.stops.brake if s.rider == "heaviest")
+    assert checks["ride.stop.stroke"].demand == pytest.approx(
+        heavy.speed * np.sqrt(heavy.mass / 10e3), rel=1e-9)
+
+
+def test_the_stop_force_is_in_equilibrium_at_the_rider(block):
+    # Statics of the rider node (Newton's first law): the two cable segments at the
+    # rider balance the stop force along the line and the rider's weight.
+    bumper = block
+    p = bumper.passes["stop"]
+    assert p.complete and len(p.stations) == 1
+    system = bumper.design_system
+    line = system.lines["family"]
+    state = p.states[0]
+    pos = system.model.coords[line.nodes] + state.translation[line.nodes]
+    t = state.group(line.group).tension
+    k = line.k
+    back, ahead = pos[k - 1] - pos[k], pos[k + 1] - pos[k]
+    force = t[k - 1] * back / np.linalg.norm(back) + t[k] * ahead / np.linalg.norm(ahead)
+    e = (line.end_xyz - line.start_xyz)[:2]
+    e = e / np.linalg.norm(e)
+    push = bumper.stops.stop_force
+    assert force[:2] @ e == pytest.approx(-push, rel=2e-3)
+    assert p.weight == pytest.approx(bumper.scenario.rider.heaviest)
+
+
+def test_the_arrest_is_checked_against_breaking_strength(block):
+    bumper = block
+    checks = by_id(bumper)
+    rope = bumper.scenario.lines[0].rope
+    arrest = checks["arrest.line.family.tension"]
+    assert arrest.capacity == pytest.approx(rope.breaking_strength)  # no factor of safety
+    term = checks["arrest.line.family.termination.meadow-pole"]
+    assert term.capacity == pytest.approx(rope.breaking_strength * 0.8)
+    assert "arrest" in bumper.passes and bumper.passes["arrest"].complete
+    arrest_stroke = checks["ride.arrest.stroke"]
+    heavy = next(s for s in bumper.stops.arrest if s.rider == "heaviest")
+    assert arrest_stroke.demand == pytest.approx(heavy.speed * np.sqrt(heavy.mass / 60e3))
+    assert checks["arrest.anchor.meadow-pole.footing.rotation"].capacity == pytest.approx(0.1)
+
+
+def test_no_brake_means_walking_pace_and_the_arrest_is_not_checked(no_ride_table):
+    checks = by_id(no_ride_table)
+    arrival = checks["ride.arrival_speed"]
+    assert arrival.capacity == pytest.approx(1.5) and not arrival.passed
+    assert "walking pace" in arrival.source
+    what = [n.what for n in no_ride_table.verdict.not_checked]
+    assert any("emergency arrest" in w for w in what)
+    assert any("stop force" in w for w in what)
+    assert "stop" not in no_ride_table.passes
+
+
+def test_outputs_show_the_brake_and_its_sources(block, no_ride_table, tmp_path):
+    bumper = block
+    text = "\n".join(summary_lines(no_ride_table, tmp_path, "us"))
+    assert "brake: none (our judgement: no brake unless one is given)" in text
+    assert "walking pace" in text
+    text = "\n".join(summary_lines(bumper, tmp_path, "si"))
+    assert "stop, heaviest rider" in text and "arrest, heaviest rider" in text
+    data = spanstay.results(bumper)
+    assert data["stops"]["stop_force"] == pytest.approx(bumper.stops.stop_force)
+    assert data["ride_limits"]["settings"]["brake"]["kind"] == "spring"
+    assert any("brake: spring" in t for t in data["ride_limits"]["text"])
