@@ -7,6 +7,7 @@ import re
 
 from spanstay.models.checks.check import Check
 from spanstay.models.checks.arrest import arrest_checks
+from spanstay.models.checks.lift_off import lift_off_checks
 from spanstay.models.checks.ride import ride_checks
 from spanstay.models.checks.stop import stop_checks
 from spanstay.models.checks.structural import structural_checks, unchecked_parts
@@ -47,8 +48,10 @@ def run_verdict(result) -> Verdict:
                 worst[c.id] = c
     ride, missing = ride_checks(result)
     stops, stop_missing = stop_checks(result)
-    verdict.checks = list(worst.values()) + verdict.checks + ride + stops
-    verdict.not_checked += missing + stop_missing + unchecked_parts(system, strength_states)
+    lift, lift_missing = lift_off_checks(result)
+    verdict.checks = list(worst.values()) + verdict.checks + ride + lift + stops
+    verdict.not_checked += (missing + lift_missing + stop_missing
+                            + unchecked_parts(system, strength_states))
     _set_aside_placeholder_checks(result.scenario, verdict)
     return verdict
 

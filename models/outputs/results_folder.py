@@ -126,7 +126,8 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
 
     from spanstay.models.analysis.installed import end_tensions, measured_sag
     from spanstay.models.analysis.anchor_shares import anchor_shares
-    from spanstay.models.outputs.ride_limits_text import ride_limit_lines, stop_lines
+    from spanstay.models.outputs.ride_limits_text import loaded_lines, ride_limit_lines, stop_lines
+    from spanstay.models.checks.lift_off import loaded_sag_ratio
 
     try:
         ver = version("spanstay")
@@ -157,7 +158,8 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "ride_limits": {"settings": sc.ride, "sources": dict(sc.ride.sources),
                         "use_temperatures_default": sc.settings.use_temperatures_default,
                         "text": ride_limit_lines(sc, units),
-                        "stop_text": stop_lines(getattr(result, "stops", None), units)},
+                        "stop_text": stop_lines(getattr(result, "stops", None), units)
+                        + loaded_lines(result, units)},
         "stops": result.stops.to_dict() if getattr(result, "stops", None) is not None else None,
         "model": {
             "parts": _parts(system),
@@ -174,6 +176,9 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "soil_profiles": soil_profiles(result),
         "plots": plots,
     }
+    sag_ratio = loaded_sag_ratio(result)
+    if sag_ratio is not None:
+        summary["ride_limits"]["loaded_sag_ratio"] = sag_ratio[0]
     if result.clearance is not None:
         c = result.clearance
         summary["ride"]["clearance"] = {"min": c.minimum, "at": c.minimum_distance,

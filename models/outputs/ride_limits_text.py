@@ -64,3 +64,19 @@ def stop_lines(stops, units: str) -> list[str]:
     for what, why in stops.why_not.items():
         out.append(f"{what}: not computed: {why}")
     return out
+
+
+def loaded_lines(result, units: str) -> list[str]:
+    """The loaded sag ratio and where each rider's trolley presses least on the cable."""
+    from spanstay.models.checks.lift_off import loaded_sag_ratio
+
+    out = []
+    ratio = loaded_sag_ratio(result)
+    if ratio is not None:
+        out.append(f"loaded sag ratio {100 * ratio[0]:.1f} % (largest sag under the heaviest "
+                   f"rider {show(ratio[1], 'length', units)} over the span)")
+    for key, ride in result.rides.items():
+        out.append(f"trolley, {key} rider: least normal force {ride.min_normal_ratio:.2f} x the "
+                   f"weight at {show(ride.min_normal_distance, 'length', units)}"
+                   + (" (LIFTS OFF)" if ride.lifts_off else ""))
+    return out

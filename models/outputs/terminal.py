@@ -72,9 +72,10 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         end = (f"arrives at {show(r.arrival_speed, 'speed', units)}" if r.reaches_end
                else f"STOPS {show(r.stop_distance, 'length', units)} along the line")
         lines.append(f"  ride, {key} rider: top speed {show(r.top_speed, 'speed', units)}, {end}")
-    from spanstay.models.outputs.ride_limits_text import ride_limit_lines, stop_lines
+    from spanstay.models.outputs.ride_limits_text import loaded_lines, ride_limit_lines, stop_lines
 
-    lines += [f"  {t}" for t in ride_limit_lines(sc, units) + stop_lines(result.stops, units)]
+    lines += [f"  {t}" for t in ride_limit_lines(sc, units) + stop_lines(result.stops, units)
+              + loaded_lines(result, units)]
     if result.clearance is not None:
         c = result.clearance
         lines.append(f"  smallest feet clearance {show(c.minimum, 'length', units)} at "

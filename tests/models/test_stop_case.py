@@ -130,3 +130,19 @@ def test_outputs_show_the_brake_and_its_sources(block, no_ride_table, tmp_path):
     assert data["stops"]["stop_force"] == pytest.approx(bumper.stops.stop_force)
     assert data["ride_limits"]["settings"]["brake"]["kind"] == "spring"
     assert any("brake: spring" in t for t in data["ride_limits"]["text"])
+
+
+def test_a_sagging_line_keeps_the_trolley_on_and_reports_its_sag_ratio(no_ride_table, tmp_path):
+    checks = by_id(no_ride_table)
+    for key in ("lightest", "heaviest"):
+        c = checks[f"ride.lift_off.{key}"]
+        # on a sagging line the curvature presses the trolley on: N >= m g cos(theta)
+        assert c.passed and c.capacity > 0.9
+    data = spanstay.results(no_ride_table)
+    # the loaded sag ratio by hand: largest sag of the heaviest rider over the plan span
+    a, b = no_ride_table.scenario.anchors
+    span = float(np.hypot(b.x - a.x, b.y - a.y))
+    ratio = max(data["passes"]["ride_heavy"]["sag"]) / span
+    assert data["ride_limits"]["loaded_sag_ratio"] == pytest.approx(ratio, rel=1e-9)
+    text = "\n".join(summary_lines(no_ride_table, tmp_path, "us"))
+    assert f"loaded sag ratio {100 * ratio:.1f} %" in text
