@@ -11,6 +11,8 @@ from dataclasses import dataclass
 
 from spanstay.models.scenario.spec import Scenario
 
+#: where a stuck or waiting rider is held: half the cable's unstressed length
+MID_SPAN = 0.5
 #: a hot pass is run when the hottest temperature of use is this far above installation (K)
 HOT_MARGIN = 0.05
 
@@ -62,6 +64,10 @@ class LoadCase:
         the stop force of a brake or end stop acting on the trolley.
     at_end
         One station only, at the ride's stop offset (the stop cases).
+    fixed
+        Loads that stay put on the ridden cable while the rider moves:
+        (fraction of the cable's unstressed length, load in N), e.g. a rider
+        stuck at mid-span.
     """
 
     name: str
@@ -76,6 +82,7 @@ class LoadCase:
     extra_loads: tuple[PointLoad, ...] = ()
     push: float = 0.0
     at_end: bool = False
+    fixed: tuple[tuple[float, float], ...] = ()
 
     def __post_init__(self) -> None:
         if self.purpose not in PURPOSES:
@@ -116,7 +123,13 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
     - design: the heaviest rider times the dynamic factor at the coldest
       temperature (the tightest line), laminated posts with K_u (EC5 2.2.2);
     - design-<line>: the same on every other line, so the anchors it shares are
-      checked under its pull too.
+      checked under its pull too;
+    - two_riders: a second rider ([ride] second_rider) stopped at mid-span, static,
+      while the heaviest rides the line times the dynamic factor (left out when
+      [ride] says single_rider);
+    - rescue: the heaviest rider stuck at mid-span and a rescuer ([ride] rescuer)
+      travelling the line to them, both times [ride] rescue_factor (left out when
+      [ride] says the rescue is from the ground).
     """
     rider = scenario.rider
     if rider is None:
@@ -137,6 +150,15 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
         label = "design" if name == rider.line else f"design-{name}"
         cases.append(LoadCase(label, "strength", name, rider.heaviest, rider.dynamic_factor,
                               t_cold, design_slip, count, keep_states=True))
+    ride, factor = scenario.ride, rider.dynamic_factor
+    if not ride.single_rider:
+        cases.append(LoadCase("two_riders", "strength", rider.line, rider.heaviest, factor, t_cold,
+                              design_slip, count, keep_states=True,
+                              fixed=((MID_SPAN, ride.second_rider_or(rider)),)))
+    if ride.rescue_on_line:
+        cases.append(LoadCase("rescue", "strength", rider.line, ride.rescuer, ride.rescue_factor,
+                              t_cold, design_slip, count, keep_states=True,
+                              fixed=((MID_SPAN, rider.heaviest * ride.rescue_factor),)))
     return tuple(cases)
 
 

@@ -87,4 +87,4 @@ def run_case(structure: Structure, case: LoadCase, stations_s: np.ndarray,
     _add_extra_loads(system, case)
     return run_pass(system, start, system.lines[case.line], stations_s, case.rider_load,
                     case.name, case.temperature, keep_states=case.keep_states,
-                    progress=progress, push=case.push)
+                    progress=progress, push=case.push, fixed=case.fixed)

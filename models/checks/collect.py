@@ -8,7 +8,7 @@ import re
 from spanstay.models.checks.check import Check
 from spanstay.models.checks.arrest import arrest_checks
 from spanstay.models.checks.lift_off import lift_off_checks
-from spanstay.models.checks.ride import ride_checks
+from spanstay.models.checks.ride import case_policy_not_checked, ride_checks
 from spanstay.models.checks.stop import stop_checks
 from spanstay.models.checks.structural import structural_checks, unchecked_parts
 from spanstay.models.checks.verdict import NotChecked, Verdict, incomplete_pass
@@ -51,6 +51,7 @@ def run_verdict(result) -> Verdict:
     lift, lift_missing = lift_off_checks(result)
     verdict.checks = list(worst.values()) + verdict.checks + ride + lift + stops
     verdict.not_checked += (missing + lift_missing + stop_missing
+                            + case_policy_not_checked(result.scenario)
                             + unchecked_parts(system, strength_states))
     _set_aside_placeholder_checks(result.scenario, verdict)
     return verdict

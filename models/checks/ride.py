@@ -97,3 +97,17 @@ def ride_checks(result, min_clearance: float | None = None,
         missing.append(NotChecked("ride", "the feet clearance over the ground",
                                   why_heavy or why_hot or "not computed"))
     return out, missing
+
+
+def case_policy_not_checked(scenario) -> list[NotChecked]:
+    """The load cases the scenario's [ride] settings leave out, each with its reason."""
+    out = []
+    if scenario.ride.single_rider:
+        out.append(NotChecked("line", "two riders on the line at once",
+                              "the scenario says the line is single-rider ([ride] single_rider): "
+                              "keep to one rider at a time"))
+    if not scenario.ride.rescue_on_line:
+        out.append(NotChecked("line", "a rescuer on the line with a stuck rider",
+                              "the scenario says rescue is from the ground ([ride] "
+                              "rescue_on_line = false): plan and equip that rescue"))
+    return out

@@ -44,6 +44,15 @@ def ride_limit_lines(scenario, units: str) -> list[str]:
         f"({r.source('min_feet_clearance')})",
         f"hang distance {hang} ({r.source('hang_distance')})",
         f"temperatures of use {temps} ({t_src})",
+        ("two riders: not checked, the line is single-rider (given)" if r.single_rider else
+         f"two riders: a second rider of {show(r.second_rider_or(scenario.rider), 'force', units)}"
+         f" stopped at mid-span (static) while the heaviest rides times the dynamic factor "
+         f"({r.source('second_rider')}; "
+         f"{r.source('single_rider')})"),
+        (f"rescue: a rescuer of {show(r.rescuer, 'force', units)} travels to the heaviest "
+         f"rider stuck at mid-span ({r.source('rescuer')}); both times {r.rescue_factor:g} "
+         f"({r.source('rescue_factor')})" if r.rescue_on_line else
+         "rescue: from the ground, not on the line (given): no rescue load case"),
     ]
     return lines
 

@@ -15,11 +15,13 @@ from spanstay.models.common.units import STANDARD_GRAVITY
 from spanstay.models.scenario import limits
 from spanstay.models.scenario.reader import Table, read_quantity
 from spanstay.models.scenario.spec import (DEFAULT_MAX_DECELERATION, DEFAULT_MIN_FEET_CLEARANCE,
+                                           DEFAULT_RESCUE_FACTOR, DEFAULT_RESCUER,
                                            SPRING_ARRIVAL_LIMIT, WALKING_PACE, BrakeSpec,
                                            RideLimits)
 
 RIDE_KEYS = ("arrival_speed_limit", "min_feet_clearance", "hang_distance", "max_deceleration",
-             "brake", "end_stop")
+             "brake", "end_stop", "single_rider", "second_rider", "rescuer", "rescue_factor",
+             "rescue_on_line")
 BRAKE_KEYS = ("kind", "stroke", "stiffness", "curve", "rated_speed", "rated_energy",
               "peak_force", "acts_on")
 ACTS_ON = ("cable", "end-anchor")
@@ -69,9 +71,31 @@ def read_ride(table: Table | None) -> RideLimits:
                            positive=True, maximum=20.0)
     sources["max_deceleration"] = ("given (in g)" if table.has("max_deceleration")
                                    else "our judgement (2 g)")
+    single = table.flag("single_rider", False)
+    second = table.quantity("second_rider", "weight", None, positive=True,
+                            maximum=limits.RIDER_WEIGHT_MAX)
+    if single and second is not None:
+        raise InputError("a single-rider line has no second rider: give one or the other",
+                         table.where("second_rider"))
+    rescuer = table.quantity("rescuer", "weight", DEFAULT_RESCUER, positive=True,
+                             maximum=limits.RIDER_WEIGHT_MAX)
+    sources["single_rider"] = ("given" if table.has("single_rider") else
+                               "our judgement: a second rider may be sent before the first is off")
+    sources["second_rider"] = "given" if second is not None else "the heaviest rider"
+    sources["rescuer"] = "given" if table.has("rescuer") else "our judgement (250 lbf with kit)"
+    rescue_factor = table.number("rescue_factor", DEFAULT_RESCUE_FACTOR, minimum=1.0, maximum=5.0)
+    sources["rescue_factor"] = ("given" if table.has("rescue_factor") else
+                                "our judgement: a slow, controlled move")
+    on_line = table.flag("rescue_on_line", True)
+    sources["rescue_on_line"] = ("given" if table.has("rescue_on_line") else
+                                 "our judgement: a stuck rider is reached along the line")
+    if not on_line:
+        table.forbid(("rescuer", "rescue_factor"), "when the rescue is from the ground")
     return RideLimits(arrival_speed_limit=arrival, min_feet_clearance=clearance,
                       hang_distance=hang, max_deceleration=decel_g * STANDARD_GRAVITY,
-                      brake=brake, end_stop=end_stop, sources=tuple(sources.items()))
+                      brake=brake, end_stop=end_stop, single_rider=single, second_rider=second,
+                      rescuer=rescuer, rescue_factor=rescue_factor, rescue_on_line=on_line,
+                      sources=tuple(sources.items()))
 
 
 def default_arrival_limit(brake: BrakeSpec) -> tuple[float, str]:

@@ -12,8 +12,15 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 from spanstay.models.catalogs.rope import RopeSpec
+from spanstay.models.scenario.ride_spec import (DEFAULT_MAX_DECELERATION, DEFAULT_MIN_FEET_CLEARANCE,
+                                                DEFAULT_RESCUE_FACTOR, DEFAULT_RESCUER,
+                                                SPRING_ARRIVAL_LIMIT, WALKING_PACE, BrakeSpec,
+                                                RideLimits)
 
-__all__ = ["RopeSpec"]  # the rope a scenario names is a catalog entry
+# the rope a scenario names is a catalog entry; the ride's limits live in ride_spec
+__all__ = ["RopeSpec", "BrakeSpec", "RideLimits", "WALKING_PACE", "SPRING_ARRIVAL_LIMIT",
+           "DEFAULT_MIN_FEET_CLEARANCE", "DEFAULT_MAX_DECELERATION", "DEFAULT_RESCUER",
+           "DEFAULT_RESCUE_FACTOR"]
 
 
 @dataclass(frozen=True)
@@ -276,65 +283,6 @@ class Settings:
     units: str                       # "us" | "si" display preference
     #: True when use_temperatures was not given and the default range is used
     use_temperatures_default: bool = False
-
-
-@dataclass(frozen=True)
-class BrakeSpec:
-    """The brake at the end of the ride, or the end stop that arrests a rider who
-    misses it. Fields not used by its kind are None.
-
-    ``none``: no brake (the rider must arrive at walking pace). ``spring`` /
-    ``bungee``: a stop block on the cable pushed along a spring or bungee, its
-    force-stroke law a linear ``stiffness`` or a ``curve`` of (stroke, force)
-    points from (0, 0), over the ``stroke`` available. ``gravity``: the line ends
-    uphill and the climb stops the rider (no stop force beyond the weight).
-    ``rated``: a brake rated by its maker for an arrival speed and an energy,
-    with the maker's peak force and stroke. ``acts_on`` says where the stop force
-    goes: ``cable`` (a block or spring on the cable: into the cable at the rider,
-    toward the end) or ``end-anchor`` (a brake line tied off to the end anchor:
-    pulling it toward the start at the line's height).
-    """
-
-    kind: str                                  # none | spring | bungee | gravity | rated
-    stroke: float | None = None                # m available
-    stiffness: float | None = None             # N/m (linear law)
-    curve: tuple[tuple[float, float], ...] | None = None  # (m, N) points
-    rated_speed: float | None = None           # m/s (rated)
-    rated_energy: float | None = None          # J (rated)
-    peak_force: float | None = None            # N (rated: the maker's peak stop force)
-    acts_on: str = "cable"                     # cable | end-anchor
-
-
-#: arrival speed when there is no brake: walking pace, m/s (our judgement)
-WALKING_PACE = 1.5
-#: arrival speed limit with a spring or bungee stop block, m/s (our judgement: a
-#: faster arrival needs a brake rated by its maker)
-SPRING_ARRIVAL_LIMIT = 6.0
-#: smallest clearance of the rider's feet over the ground, m (our judgement)
-DEFAULT_MIN_FEET_CLEARANCE = 0.15
-#: largest deceleration of the rider at the stop, m/s^2: 2 g (our judgement; a
-#: stop that pitches a rider harder than this hurts)
-DEFAULT_MAX_DECELERATION = 2.0 * 9.80665
-
-
-@dataclass(frozen=True)
-class RideLimits:
-    """The ride's limits and its brake (scenario table ``[ride]``), SI.
-
-    ``sources`` holds, per key, "given" or where its default comes from.
-    """
-
-    arrival_speed_limit: float = WALKING_PACE
-    min_feet_clearance: float = DEFAULT_MIN_FEET_CLEARANCE
-    hang_distance: tuple[float, float] | None = None  # (shortest, longest) m; None: the rider's
-    max_deceleration: float = DEFAULT_MAX_DECELERATION
-    brake: BrakeSpec = field(default_factory=lambda: BrakeSpec("none"))
-    end_stop: BrakeSpec | None = None
-    sources: tuple[tuple[str, str], ...] = ()
-
-    def source(self, key: str) -> str:
-        """Where the value of ``key`` comes from."""
-        return dict(self.sources).get(key, "our judgement")
 
 
 @dataclass(frozen=True)

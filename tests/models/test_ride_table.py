@@ -110,3 +110,35 @@ def test_no_range_of_use_means_installation_plus_minus_25_k():
     assert cases["hot"].temperature == pytest.approx(t + 25.0)
     given = read_scenario(data())
     assert not given.settings.use_temperatures_default
+
+
+def test_two_riders_and_rescue_are_on_unless_the_user_says_otherwise():
+    s = read_scenario(data())
+    names = [c.name for c in load_cases(s, 4)]
+    assert "two_riders" in names and "rescue" in names
+    cases = {c.name: c for c in load_cases(s, 4)}
+    heavy, factor = s.rider.heaviest, s.rider.dynamic_factor
+    # a second rider of the heaviest weight stopped (static) at mid-span; the rescuer
+    # (250 lbf, our judgement) and the stuck rider times the rescue factor 1.25
+    assert cases["two_riders"].fixed == ((0.5, pytest.approx(heavy)),)
+    assert cases["two_riders"].rider_load == pytest.approx(heavy * factor)
+    assert cases["rescue"].rider_load == pytest.approx(250 * LBF * 1.25)
+    assert cases["rescue"].fixed == ((0.5, pytest.approx(heavy * 1.25)),)
+    off = read_scenario(data({"single_rider": True, "rescue_on_line": False}))
+    names = [c.name for c in load_cases(off, 4)]
+    assert "two_riders" not in names and "rescue" not in names
+    from spanstay.models.checks.ride import case_policy_not_checked
+    what = [n.what for n in case_policy_not_checked(off)]
+    assert what == ["two riders on the line at once", "a rescuer on the line with a stuck rider"]
+
+
+@pytest.mark.parametrize("ride, where", [
+    ({"single_rider": True, "second_rider": "200 lbf"}, "ride.second_rider"),
+    ({"rescue_on_line": False, "rescuer": "200 lbf"}, "ride.rescuer"),
+    ({"rescue_factor": 0.5}, "ride.rescue_factor"),
+    ({"single_rider": "yes"}, "ride.single_rider"),
+])
+def test_bad_rider_policy_names_its_key(ride, where):
+    with pytest.raises(InputError) as info:
+        read_scenario(data(ride))
+    assert info.value.where == where
