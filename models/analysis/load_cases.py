@@ -64,6 +64,9 @@ class LoadCase:
         the stop force of a brake or end stop acting on the trolley.
     at_end
         One station only, at the ride's stop offset (the stop cases).
+    stretch
+        Constructional stretch of the ridden line's rope, bedded in: a strain
+        added to its unstressed length before the rider (0: as installed).
     fixed
         Loads that stay put on the ridden cable while the rider moves:
         (fraction of the cable's unstressed length, load in N), e.g. a rider
@@ -83,6 +86,7 @@ class LoadCase:
     push: float = 0.0
     at_end: bool = False
     fixed: tuple[tuple[float, float], ...] = ()
+    stretch: float = 0.0
 
     def __post_init__(self) -> None:
         if self.purpose not in PURPOSES:
@@ -120,6 +124,8 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
       installation temperature, fastener slip K_ser (the ride and its speeds);
     - hot: the heaviest rider, static, at the hottest temperature of use (feet
       clearance), when that is above installation;
+    - bedded: the same after the rope's constructional stretch has bedded in
+      and before it is re-tensioned ([ride] bedding_in_stretch; feet clearance);
     - design: the heaviest rider times the dynamic factor at the coldest
       temperature (the tightest line), laminated posts with K_u (EC5 2.2.2);
     - design-<line>: the same on every other line, so the anchors it shares are
@@ -146,6 +152,10 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
     if t_hot > t_inst + HOT_MARGIN:
         cases.append(LoadCase("hot", "clearance", rider.line, rider.heaviest, 1.0, t_hot,
                               "service", count))
+    if scenario.ride.bedding_in_stretch > 0.0:
+        cases.append(LoadCase("bedded", "clearance", rider.line, rider.heaviest, 1.0,
+                              max(t_hot, t_inst), "service", count,
+                              stretch=scenario.ride.bedding_in_stretch))
     for name in [rider.line] + other_lines(scenario):
         label = "design" if name == rider.line else f"design-{name}"
         cases.append(LoadCase(label, "strength", name, rider.heaviest, rider.dynamic_factor,

@@ -43,6 +43,8 @@ class RunResult:
     design_installed: State | None = None
     cases: tuple[LoadCase, ...] = ()
     stops: Stops | None = None              # the brake's stop and the emergency arrest
+    clearances: dict[str, Clearance] = field(default_factory=dict)  # per clearance pass
+    clearance_pass: str = ""                # the pass that gives the smallest clearance
 
 
 def structures(scenario: Scenario) -> dict[str, Structure]:
@@ -130,7 +132,7 @@ def _ride(result: RunResult) -> None:
                                        drag_area=rider.drag_area, start_speed=rider.start_speed,
                                        air_density=rider.air_density)
     worst = None
-    for label in ("ride_heavy", "hot"):
+    for label in CLEARANCE_PASSES:
         p = result.passes.get(label)
         if p is None:
             continue
@@ -139,9 +141,15 @@ def _ride(result: RunResult) -> None:
             return
         along, z = _profile(p)
         c = feet_clearance(along, z, longest_hang(result.scenario), gd, gz)
+        result.clearances[label] = c
         if worst is None or c.minimum < worst.minimum:
-            worst = c
+            worst, result.clearance_pass = c, label
     result.clearance = worst
+
+
+#: the passes whose feet clearance is checked: the heaviest rider as installed, on the
+#: hottest day, after bedding-in, and bouncing (the design pass: times the dynamic factor)
+CLEARANCE_PASSES = ("ride_heavy", "hot", "bedded", "design")
 
 
 def longest_hang(scenario: Scenario) -> float:

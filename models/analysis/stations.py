@@ -49,6 +49,7 @@ class Pass:
     failed_at: float | None = None
     failure: str = ""
     failed_groups: tuple[str, ...] = ()   # element groups around the largest imbalance
+    unloaded_sag: float | None = None     # the line's sag before the rider (bedded-in cases)
 
     @property
     def complete(self) -> bool:

@@ -81,7 +81,8 @@ def ride_checks(result, min_clearance: float | None = None,
     else:
         missing.append(NotChecked("ride", "the arrival speed",
                                   why_heavy or why_light or "not computed"))
-    why_hot = _stopped(result, "hot")
+    why_hot = (_stopped(result, "hot") or _stopped(result, "bedded")
+               or _stopped(result, "design"))
     if result.clearance is not None and why_heavy is None and why_hot is None:
         c = result.clearance
         out.append(Check(
@@ -89,9 +90,11 @@ def ride_checks(result, min_clearance: float | None = None,
             description="rider's feet clear the ground", demand=min_clearance,
             capacity=c.minimum, kind="length",
             utilization=min_clearance / c.minimum if c.minimum > 0 else math.inf,
-            governing={"pass": "ride_heavy/hot", "rider_weight": result.passes["ride_heavy"].weight,
+            governing={"pass": result.clearance_pass or "ride_heavy",
+                       "rider_weight": result.passes[result.clearance_pass or "ride_heavy"].weight,
                        "station": None, "along": c.minimum_distance},
-            source=clear_source + " (heaviest rider, installed and hottest day, longest hang)",
+            source=clear_source + " (heaviest rider as installed, on the hottest day, after "
+                                  "bedding-in and bouncing (design pass); longest hang)",
             note=f"smallest clearance {c.minimum:.2f} m"))
     else:
         missing.append(NotChecked("ride", "the feet clearance over the ground",

@@ -44,6 +44,8 @@ def ride_limit_lines(scenario, units: str) -> list[str]:
         f"({r.source('min_feet_clearance')})",
         f"hang distance {hang} ({r.source('hang_distance')})",
         f"temperatures of use {temps} ({t_src})",
+        f"constructional stretch of the ridden rope once bedded in "
+        f"{100 * r.bedding_in_stretch:.3g} % ({r.source('bedding_in_stretch')})",
         ("two riders: not checked, the line is single-rider (given)" if r.single_rider else
          f"two riders: a second rider of {show(r.second_rider_or(scenario.rider), 'force', units)}"
          f" stopped at mid-span (static) while the heaviest rides times the dynamic factor "
@@ -75,11 +77,33 @@ def stop_lines(stops, units: str) -> list[str]:
     return out
 
 
+def bedding_lines(result, units: str) -> list[str]:
+    """Sag and clearance after bedding-in, and the take-up that restores the installed sag."""
+    p = result.passes.get("bedded")
+    if p is None:
+        return []
+    if not p.complete:
+        return ["after bedding-in: not computed, because pass 'bedded' stopped early"]
+    sc = result.scenario
+    name = sc.rider.line
+    take_up = sc.ride.bedding_in_stretch * result.lengths[name]
+    out = [f"after bedding-in (before re-tensioning): sag {show(p.unloaded_sag, 'length', units)}"
+           f" without a rider, {show(max(s.sag for s in p.stations), 'length', units)} under the "
+           f"heaviest rider on the hottest day"]
+    c = result.clearances.get("bedded")
+    if c is not None:
+        out[-1] += f", smallest feet clearance {show(c.minimum, 'length', units)}"
+    out.append(f"re-tensioning after bedding-in: take up {show(take_up, 'length', units)} of "
+               f"cable ({100 * sc.ride.bedding_in_stretch:.3g} % of its unstressed length) to "
+               "restore the installed sag; inspect and re-tension after the first rides")
+    return out
+
+
 def loaded_lines(result, units: str) -> list[str]:
     """The loaded sag ratio and where each rider's trolley presses least on the cable."""
     from spanstay.models.checks.lift_off import loaded_sag_ratio
 
-    out = []
+    out = bedding_lines(result, units)
     ratio = loaded_sag_ratio(result)
     if ratio is not None:
         out.append(f"loaded sag ratio {100 * ratio[0]:.1f} % (largest sag under the heaviest "
@@ -88,4 +112,7 @@ def loaded_lines(result, units: str) -> list[str]:
         out.append(f"trolley, {key} rider: least normal force {ride.min_normal_ratio:.2f} x the "
                    f"weight at {show(ride.min_normal_distance, 'length', units)}"
                    + (" (LIFTS OFF)" if ride.lifts_off else ""))
+    if result.clearance is not None and result.clearance_pass:
+        out.append(f"smallest feet clearance in pass '{result.clearance_pass}' (passes checked: "
+                   "ride_heavy, hot, bedded, design)")
     return out

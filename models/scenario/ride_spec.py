@@ -51,6 +51,12 @@ DEFAULT_RESCUER = 250 * 4.4482216152605
 DEFAULT_RESCUE_FACTOR = 1.25
 
 
+#: constructional stretch of a new stranded steel rope once bedded in, as a strain:
+#: 0.25 % (from memory, common practice for strand and wire-core ropes; fibre-core
+#: ropes stretch more, pre-stretched ropes less: give the maker's figure)
+DEFAULT_BEDDING_IN_STRETCH = 0.0025
+
+
 @dataclass(frozen=True)
 class RideLimits:
     """The ride's limits and its brake (scenario table ``[ride]``), SI.
@@ -69,6 +75,7 @@ class RideLimits:
     rescuer: float = DEFAULT_RESCUER            # N, rescuer with gear
     rescue_factor: float = DEFAULT_RESCUE_FACTOR  # on the rescuer's and stuck rider's weights
     rescue_on_line: bool = True                # False: rescue from the ground (no rescue case)
+    bedding_in_stretch: float = DEFAULT_BEDDING_IN_STRETCH  # strain of the ridden rope
     sources: tuple[tuple[str, str], ...] = ()
 
     def second_rider_or(self, rider) -> float:
