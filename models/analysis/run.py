@@ -45,6 +45,8 @@ class RunResult:
     stops: Stops | None = None              # the brake's stop and the emergency arrest
     clearances: dict[str, Clearance] = field(default_factory=dict)  # per clearance pass
     clearance_pass: str = ""                # the pass that gives the smallest clearance
+    drops: list = field(default_factory=list)  # analysis.drop.DropFactor: the factor's basis
+    drop_why: str = ""                      # why a drop factor is missing
 
 
 def structures(scenario: Scenario) -> dict[str, Structure]:
@@ -92,6 +94,9 @@ def analyse(scenario: Scenario, stations: int | None = None,
                        coords[rider.line], passes, design_system=strength.system,
                        design_installed=strength.installed, cases=cases)
     _ride(result)
+    from spanstay.models.analysis.drop import drop_factors
+    result.drops, result.drop_why = drop_factors(service, rider.line, coords[rider.line],
+                                                 rider.heaviest, scenario.ride.drop_height)
     result.stops = arrival_stops(scenario, result.rides)
     more = stop_cases(scenario, result.stops.stop_force, result.stops.arrest_force)
     if more:  # one station each, at the ride's end: after the rides that give the speed

@@ -44,6 +44,8 @@ def ride_limit_lines(scenario, units: str) -> list[str]:
         f"({r.source('min_feet_clearance')})",
         f"hang distance {hang} ({r.source('hang_distance')})",
         f"temperatures of use {temps} ({t_src})",
+        f"a rider's drop onto the line {show(r.drop_height, 'length', units)} "
+        f"({r.source('drop_height')})",
         f"constructional stretch of the ridden rope once bedded in "
         f"{100 * r.bedding_in_stretch:.3g} % ({r.source('bedding_in_stretch')})",
         ("two riders: not checked, the line is single-rider (given)" if r.single_rider else
@@ -99,11 +101,33 @@ def bedding_lines(result, units: str) -> list[str]:
     return out
 
 
+def dynamic_lines(result, units: str) -> list[str]:
+    """The dynamic factor chosen beside the ones the line's force-sag law gives, with a
+    warning when the chosen one is below."""
+    rider = result.scenario.rider
+    out = []
+    for d in getattr(result, "drops", []):
+        out.append(f"dynamic factor basis at the {d.where} ({show(d.along, 'length', units)}): "
+                   f"a drop of {show(d.drop_height, 'length', units)} gives "
+                   f"{d.drop_factor:.2f}, a bounce (weight applied suddenly) {d.bounce_factor:.2f}"
+                   " (energy balance on the loaded line's force-sag law, work-energy theorem)")
+    if getattr(result, "drop_why", ""):
+        out.append(f"dynamic factor basis: not computed: {result.drop_why}")
+    worst = max((max(d.drop_factor, d.bounce_factor) for d in getattr(result, "drops", [])),
+                default=None)
+    if worst is not None:
+        out.append(f"dynamic factor used {rider.dynamic_factor:g}"
+                   + (f"; WARNING: below the computed {worst:.2f}: raise it, or justify it"
+                      if rider.dynamic_factor < worst else
+                      f", not below the computed {worst:.2f}"))
+    return out
+
+
 def loaded_lines(result, units: str) -> list[str]:
     """The loaded sag ratio and where each rider's trolley presses least on the cable."""
     from spanstay.models.checks.lift_off import loaded_sag_ratio
 
-    out = bedding_lines(result, units)
+    out = dynamic_lines(result, units) + bedding_lines(result, units)
     ratio = loaded_sag_ratio(result)
     if ratio is not None:
         out.append(f"loaded sag ratio {100 * ratio[0]:.1f} % (largest sag under the heaviest "

@@ -57,6 +57,11 @@ DEFAULT_RESCUE_FACTOR = 1.25
 DEFAULT_BEDDING_IN_STRETCH = 0.0025
 
 
+#: how far a rider falls before the line takes their weight when sitting off the
+#: platform (harness and lanyard slack), m: 0.3 m, our judgement
+DEFAULT_DROP_HEIGHT = 0.3
+
+
 @dataclass(frozen=True)
 class RideLimits:
     """The ride's limits and its brake (scenario table ``[ride]``), SI.
@@ -76,6 +81,7 @@ class RideLimits:
     rescue_factor: float = DEFAULT_RESCUE_FACTOR  # on the rescuer's and stuck rider's weights
     rescue_on_line: bool = True                # False: rescue from the ground (no rescue case)
     bedding_in_stretch: float = DEFAULT_BEDDING_IN_STRETCH  # strain of the ridden rope
+    drop_height: float = DEFAULT_DROP_HEIGHT   # m, a rider's fall before the line takes them
     sources: tuple[tuple[str, str], ...] = ()
 
     def second_rider_or(self, rider) -> float:

@@ -146,3 +146,19 @@ def test_a_sagging_line_keeps_the_trolley_on_and_reports_its_sag_ratio(no_ride_t
     assert data["ride_limits"]["loaded_sag_ratio"] == pytest.approx(ratio, rel=1e-9)
     text = "\n".join(summary_lines(no_ride_table, tmp_path, "us"))
     assert f"loaded sag ratio {100 * ratio:.1f} %" in text
+
+
+def test_the_dynamic_factor_basis_is_computed_and_shown(no_ride_table, tmp_path):
+    from spanstay.models.analysis.drop import peak_factor
+
+    drops = {d.where: d for d in no_ride_table.drops}
+    assert set(drops) == {"launch", "mid-span"}
+    for d in drops.values():
+        # the law rises and the factors come from it (energy balance on the same law)
+        assert np.all(np.diff(d.law_force) > 0) and np.all(np.diff(d.law_drop) > 0)
+        assert d.drop_factor == pytest.approx(peak_factor(d.law_force, d.law_drop, d.weight, 0.3))
+        assert d.drop_factor > d.bounce_factor >= 2.0 - 1e-6   # the cable stiffens
+    data = spanstay.results(no_ride_table)
+    assert len(data["dynamic_basis"]["computed"]) == 2
+    text = "\n".join(summary_lines(no_ride_table, tmp_path, "us"))
+    assert "dynamic factor used 1.5; WARNING" in text
