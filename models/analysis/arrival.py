@@ -41,13 +41,16 @@ class Stops:
                 "why_not": dict(self.why_not)}
 
 
-def arrival_stops(scenario: Scenario, rides: dict) -> Stops:
+def arrival_stops(scenario: Scenario, rides: dict,
+                  tail_wind_speeds: dict[str, float] | None = None) -> Stops:
     """The stops of every rider whose ride pass is complete and who arrives.
 
     The rider's mass is its weight over standard gravity; the arrival speed is
-    that of its ride at the ride's stop offset (``rides``: rider key ->
-    :class:`spanstay.models.analysis.ride.RideResult`).
+    the faster of its ride at the ride's stop offset (``rides``: rider key ->
+    :class:`spanstay.models.analysis.ride.RideResult`) and its arrival in the tail
+    wind (``tail_wind_speeds``: rider key -> m/s).
     """
+    tail = tail_wind_speeds or {}
     rider, limits = scenario.rider, scenario.ride
     out = Stops()
     weights = {"lightest": rider.lightest, "heaviest": rider.heaviest}
@@ -63,11 +66,12 @@ def arrival_stops(scenario: Scenario, rides: dict) -> Stops:
         return out
     for key, ride in arriving:
         mass = weights[key] / STANDARD_GRAVITY
-        s = stop(limits.brake, mass, float(ride.arrival_speed), key)
+        speed = max(float(ride.arrival_speed), float(tail.get(key, 0.0)))
+        s = stop(limits.brake, mass, speed, key)
         if s is not None:
             out.brake.append(s)
         if limits.end_stop is not None:
-            out.arrest.append(stop(limits.end_stop, mass, float(ride.arrival_speed), key))
+            out.arrest.append(stop(limits.end_stop, mass, speed, key))
     if not out.brake:
         out.why_not["stop"] = (f"the brake is '{limits.brake.kind}': no stop force beyond the "
                                "rider's weight (the design case carries that)")

@@ -47,6 +47,7 @@ class RunResult:
     clearance_pass: str = ""                # the pass that gives the smallest clearance
     drops: list = field(default_factory=list)  # analysis.drop.DropFactor: the factor's basis
     drop_why: str = ""                      # why a drop factor is missing
+    wind_rides: dict = field(default_factory=dict)  # "head"/"tail" -> rider -> WindRide
 
 
 def structures(scenario: Scenario) -> dict[str, Structure]:
@@ -97,7 +98,10 @@ def analyse(scenario: Scenario, stations: int | None = None,
     from spanstay.models.analysis.drop import drop_factors
     result.drops, result.drop_why = drop_factors(service, rider.line, coords[rider.line],
                                                  rider.heaviest, scenario.ride.drop_height)
-    result.stops = arrival_stops(scenario, result.rides)
+    result.wind_rides = _wind_rides(result)
+    tail = {k: r.arrival_speed for k, r in result.wind_rides.get("tail", {}).items()
+            if r.reaches_end}
+    result.stops = arrival_stops(scenario, result.rides, tail)
     more = stop_cases(scenario, result.stops.stop_force, result.stops.arrest_force)
     if more:  # one station each, at the ride's end: after the rides that give the speed
         end = {rider.line: coords[rider.line][-1:]}
@@ -150,6 +154,27 @@ def _ride(result: RunResult) -> None:
         if worst is None or c.minimum < worst.minimum:
             worst, result.clearance_pass = c, label
     result.clearance = worst
+
+
+def _wind_rides(result: RunResult) -> dict:
+    """Each rider's ride in the head wind and the tail wind of [ride] (complete passes)."""
+    from spanstay.models.analysis.ride_wind import ride_in_wind
+
+    rider, limits = result.scenario.rider, result.scenario.ride
+    out: dict = {"head": {}, "tail": {}}
+    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
+        p = result.passes[label]
+        if not p.complete or len(p.stations) < 2:
+            continue
+        along, z = _profile(p)
+        mass = p.weight / STANDARD_GRAVITY
+        for name, wind in (("head", -limits.head_wind), ("tail", limits.tail_wind)):
+            out[name][key] = ride_in_wind(along, z, mass, wind,
+                                          rolling_resistance=rider.rolling_resistance,
+                                          drag_area=rider.drag_area,
+                                          air_density=rider.air_density,
+                                          start_speed=rider.start_speed)
+    return out
 
 
 #: the passes whose feet clearance is checked: the heaviest rider as installed, on the

@@ -10,6 +10,7 @@ from spanstay.models.checks.arrest import arrest_checks
 from spanstay.models.checks.lift_off import lift_off_checks
 from spanstay.models.checks.ride import case_policy_not_checked, ride_checks
 from spanstay.models.checks.stop import stop_checks
+from spanstay.models.checks.wind import wind_checks
 from spanstay.models.checks.structural import structural_checks, unchecked_parts
 from spanstay.models.checks.verdict import NotChecked, Verdict, incomplete_pass
 
@@ -49,8 +50,9 @@ def run_verdict(result) -> Verdict:
     ride, missing = ride_checks(result)
     stops, stop_missing = stop_checks(result)
     lift, lift_missing = lift_off_checks(result)
-    verdict.checks = list(worst.values()) + verdict.checks + ride + lift + stops
-    verdict.not_checked += (missing + lift_missing + stop_missing
+    wind, wind_missing = wind_checks(result)
+    verdict.checks = list(worst.values()) + verdict.checks + ride + wind + lift + stops
+    verdict.not_checked += (missing + wind_missing + lift_missing + stop_missing
                             + case_policy_not_checked(result.scenario)
                             + unchecked_parts(system, strength_states))
     _set_aside_placeholder_checks(result.scenario, verdict)

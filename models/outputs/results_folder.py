@@ -161,6 +161,7 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
                         "stop_text": stop_lines(getattr(result, "stops", None), units)
                         + loaded_lines(result, units)},
         "stops": result.stops.to_dict() if getattr(result, "stops", None) is not None else None,
+        "wind_rides": getattr(result, "wind_rides", {}),
         "dynamic_basis": {"used": sc.rider.dynamic_factor,
                           "computed": list(getattr(result, "drops", [])),
                           "why_not": getattr(result, "drop_why", "")},

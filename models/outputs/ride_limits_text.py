@@ -44,6 +44,9 @@ def ride_limit_lines(scenario, units: str) -> list[str]:
         f"({r.source('min_feet_clearance')})",
         f"hang distance {hang} ({r.source('hang_distance')})",
         f"temperatures of use {temps} ({t_src})",
+        f"wind on the ride: head {show(r.head_wind, 'speed', units)} "
+        f"({r.source('head_wind')}), tail {show(r.tail_wind, 'speed', units)} "
+        f"({r.source('tail_wind')})",
         f"a rider's drop onto the line {show(r.drop_height, 'length', units)} "
         f"({r.source('drop_height')})",
         f"constructional stretch of the ridden rope once bedded in "
@@ -128,6 +131,11 @@ def loaded_lines(result, units: str) -> list[str]:
     from spanstay.models.checks.lift_off import loaded_sag_ratio
 
     out = dynamic_lines(result, units) + bedding_lines(result, units)
+    for wind, riders in (getattr(result, "wind_rides", {}) or {}).items():
+        for key, r in riders.items():
+            out.append(f"ride in the {wind} wind, {key} rider: "
+                       + (f"arrives at {show(r.arrival_speed, 'speed', units)}" if r.reaches_end
+                          else f"STOPS {show(r.stop_distance, 'length', units)} along the line"))
     ratio = loaded_sag_ratio(result)
     if ratio is not None:
         out.append(f"loaded sag ratio {100 * ratio[0]:.1f} % (largest sag under the heaviest "

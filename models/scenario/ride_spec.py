@@ -62,6 +62,11 @@ DEFAULT_BEDDING_IN_STRETCH = 0.0025
 DEFAULT_DROP_HEIGHT = 0.3
 
 
+#: the wind the line is ridden in, head and tail, m/s: 2.5 m/s (about 5.6 mph), our
+#: judgement of a breezy day; close the line in stronger wind
+DEFAULT_RIDE_WIND = 2.5
+
+
 @dataclass(frozen=True)
 class RideLimits:
     """The ride's limits and its brake (scenario table ``[ride]``), SI.
@@ -82,6 +87,8 @@ class RideLimits:
     rescue_on_line: bool = True                # False: rescue from the ground (no rescue case)
     bedding_in_stretch: float = DEFAULT_BEDDING_IN_STRETCH  # strain of the ridden rope
     drop_height: float = DEFAULT_DROP_HEIGHT   # m, a rider's fall before the line takes them
+    head_wind: float = DEFAULT_RIDE_WIND       # m/s against the travel
+    tail_wind: float = DEFAULT_RIDE_WIND       # m/s with the travel
     sources: tuple[tuple[str, str], ...] = ()
 
     def second_rider_or(self, rider) -> float:

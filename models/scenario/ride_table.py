@@ -14,7 +14,8 @@ from spanstay.models.common.errors import InputError
 from spanstay.models.common.units import STANDARD_GRAVITY
 from spanstay.models.scenario import limits
 from spanstay.models.scenario.reader import Table, read_quantity
-from spanstay.models.scenario.ride_spec import DEFAULT_BEDDING_IN_STRETCH, DEFAULT_DROP_HEIGHT
+from spanstay.models.scenario.ride_spec import (DEFAULT_BEDDING_IN_STRETCH, DEFAULT_DROP_HEIGHT,
+                                                DEFAULT_RIDE_WIND)
 from spanstay.models.scenario.spec import (DEFAULT_MAX_DECELERATION, DEFAULT_MIN_FEET_CLEARANCE,
                                            DEFAULT_RESCUE_FACTOR, DEFAULT_RESCUER,
                                            SPRING_ARRIVAL_LIMIT, WALKING_PACE, BrakeSpec,
@@ -22,7 +23,8 @@ from spanstay.models.scenario.spec import (DEFAULT_MAX_DECELERATION, DEFAULT_MIN
 
 RIDE_KEYS = ("arrival_speed_limit", "min_feet_clearance", "hang_distance", "max_deceleration",
              "brake", "end_stop", "single_rider", "second_rider", "rescuer", "rescue_factor",
-             "rescue_on_line", "bedding_in_stretch", "drop_height")
+             "rescue_on_line", "bedding_in_stretch", "drop_height", "head_wind",
+             "tail_wind")
 BRAKE_KEYS = ("kind", "stroke", "stiffness", "curve", "rated_speed", "rated_energy",
               "peak_force", "acts_on")
 ACTS_ON = ("cable", "end-anchor")
@@ -100,7 +102,13 @@ def read_ride(table: Table | None) -> RideLimits:
     drop = table.quantity("drop_height", "length", DEFAULT_DROP_HEIGHT, minimum=0.0,
                           maximum=5.0)
     sources["drop_height"] = "given" if table.has("drop_height") else "our judgement"
-    return RideLimits(arrival_speed_limit=arrival, bedding_in_stretch=stretch, drop_height=drop, min_feet_clearance=clearance,
+    winds = {}
+    for key in ("head_wind", "tail_wind"):
+        winds[key] = table.quantity(key, "speed", DEFAULT_RIDE_WIND, minimum=0.0, maximum=40.0)
+        sources[key] = ("given" if table.has(key) else
+                        "our judgement: a breezy day; close the line in stronger wind")
+    return RideLimits(arrival_speed_limit=arrival, bedding_in_stretch=stretch, drop_height=drop,
+                      **winds, min_feet_clearance=clearance,
                       hang_distance=hang, max_deceleration=decel_g * STANDARD_GRAVITY,
                       brake=brake, end_stop=end_stop, single_rider=single, second_rider=second,
                       rescuer=rescuer, rescue_factor=rescue_factor, rescue_on_line=on_line,

@@ -142,3 +142,12 @@ def test_bad_rider_policy_names_its_key(ride, where):
     with pytest.raises(InputError) as info:
         read_scenario(data(ride))
     assert info.value.where == where
+
+
+def test_ride_winds_default_and_given():
+    r = read_scenario(data()).ride
+    assert r.head_wind == pytest.approx(2.5) and r.tail_wind == pytest.approx(2.5)
+    assert "our judgement" in r.source("head_wind")
+    r = read_scenario(data({"head_wind": "10 mph", "tail_wind": "0 mph"})).ride
+    assert r.head_wind == pytest.approx(10 * MPH) and r.tail_wind == 0.0
+    fails(data({"tail_wind": "-3 mph"}), "ride.tail_wind", "at least")

@@ -162,3 +162,17 @@ def test_the_dynamic_factor_basis_is_computed_and_shown(no_ride_table, tmp_path)
     assert len(data["dynamic_basis"]["computed"]) == 2
     text = "\n".join(summary_lines(no_ride_table, tmp_path, "us"))
     assert "dynamic factor used 1.5; WARNING" in text
+
+
+def test_the_stop_uses_the_tail_wind_arrival(block):
+    # the tail wind speeds the arrival (drag on the relative air speed is smaller), and
+    # the stop is worked out from that faster arrival
+    for s in block.stops.brake:
+        still = block.rides[s.rider].arrival_speed
+        tail = block.wind_rides["tail"][s.rider].arrival_speed
+        assert tail > still and s.speed == pytest.approx(tail)
+        assert block.wind_rides["head"][s.rider].arrival_speed < still
+    checks = by_id(block)
+    assert checks["ride.tail_wind.arrival_speed"].demand == pytest.approx(
+        max(r.arrival_speed for r in block.wind_rides["tail"].values()))
+    assert any("wind and ice loads" in n.what for n in block.verdict.not_checked)
