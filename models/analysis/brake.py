@@ -45,10 +45,7 @@ class StopResult:
 
 
 def law_points(brake: BrakeSpec) -> np.ndarray:
-    """The law as (stroke, force) points from (0, 0), one segment past the stroke."""
-    if brake.stiffness is not None:
-        x = 2.0 * float(brake.stroke)
-        return np.array([[0.0, 0.0], [x, brake.stiffness * x]])
+    """A curve law's (stroke, force) points from (0, 0)."""
     pts = np.asarray(brake.curve, float)
     if pts.shape[0] < 2:
         raise ValueError("a force-stroke curve needs at least one point after (0, 0)")

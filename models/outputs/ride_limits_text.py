@@ -42,7 +42,8 @@ def ride_limit_lines(scenario, units: str) -> list[str]:
         f"({r.source('max_deceleration')})",
         f"smallest feet clearance {show(r.min_feet_clearance, 'length', units)} "
         f"({r.source('min_feet_clearance')})",
-        f"hang distance {hang} ({r.source('hang_distance')})",
+        f"hang distance {hang} ({r.source('hang_distance')}; the longest is used for the feet "
+        "clearance)",
         f"temperatures of use {temps} ({t_src})",
         f"wind on the ride: head {show(r.head_wind, 'speed', units)} "
         f"({r.source('head_wind')}), tail {show(r.tail_wind, 'speed', units)} "
