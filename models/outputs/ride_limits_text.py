@@ -127,11 +127,29 @@ def dynamic_lines(result, units: str) -> list[str]:
     return out
 
 
+def stop_pass_lines(result, units: str) -> list[str]:
+    """The line's end tensions and the end anchor's movement in the stop and arrest passes."""
+    out = []
+    line = result.scenario.line(result.scenario.rider.line)
+    for name in ("stop", "arrest"):
+        p = result.passes.get(name)
+        if p is None or not p.complete or not p.stations:
+            continue
+        st = p.stations[0]
+        move = float((st.anchor_disp.get(line.end, [0.0, 0.0, 0.0])[0] ** 2
+                      + st.anchor_disp.get(line.end, [0.0, 0.0, 0.0])[1] ** 2) ** 0.5)
+        out.append(f"{name} pass: line tension {show(st.tension_start, 'force', units)} at "
+                   f"'{line.start}', {show(st.tension_end, 'force', units)} at '{line.end}' "
+                   f"(largest {show(st.tension_max, 'force', units)}); the end anchor moves "
+                   f"{show(move, 'length', units)} at the line")
+    return out
+
+
 def loaded_lines(result, units: str) -> list[str]:
     """The loaded sag ratio and where each rider's trolley presses least on the cable."""
     from spanstay.models.checks.lift_off import loaded_sag_ratio
 
-    out = dynamic_lines(result, units) + bedding_lines(result, units)
+    out = stop_pass_lines(result, units) + dynamic_lines(result, units) + bedding_lines(result, units)
     for wind, riders in (getattr(result, "wind_rides", {}) or {}).items():
         for key, r in riders.items():
             out.append(f"ride in the {wind} wind, {key} rider: "

@@ -77,3 +77,14 @@ def test_head_wind_stop_and_tail_wind_speed_fail_their_checks():
     assert c["ride.head_wind.lightest_arrives"].utilization == pytest.approx(20.0 / 12.0)
     assert not c["ride.tail_wind.arrival_speed"].passed
     assert any("ASCE 7" in n.reason for n in missing)
+
+
+def test_energies_show_in_both_unit_systems():
+    # 1 ft*lbf = 1.3558179483314004 J (exact from the foot and the pound-force, NIST SP 811)
+    from spanstay.models.common.units import show as terminal_show
+    from spanstay.models.outputs.display_units import show as report_show
+
+    j = 1000 * 1.3558179483314004
+    assert report_show(j, "energy", "us") == "1,000 ft·lbf"
+    assert report_show(j, "energy", "si") == "1.36 kJ"
+    assert terminal_show(j, "energy", "us").startswith("1,000 ft")
