@@ -176,3 +176,17 @@ def test_the_stop_uses_the_tail_wind_arrival(block):
     assert checks["ride.tail_wind.arrival_speed"].demand == pytest.approx(
         max(r.arrival_speed for r in block.wind_rides["tail"].values()))
     assert any("wind and ice loads" in n.what for n in block.verdict.not_checked)
+
+
+def test_the_stop_pass_is_checked_with_the_strength_passes(block):
+    # the stop's state is checked like every strength pass: the verdict keeps, per
+    # check, the worst of them, so it is never below the stop's own
+    from spanstay.models.checks.structural import structural_checks
+
+    own = {c.id: c for c in structural_checks(block.design_system, block.passes["stop"])}
+    merged = by_id(block)
+    assert own
+    for cid, c in own.items():
+        assert merged[cid].utilization >= c.utilization - 1e-12
+    start = own["line.family.termination.orchard-pole"]
+    assert start.demand == pytest.approx(block.passes["stop"].stations[0].tension_start)
