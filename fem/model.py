@@ -9,6 +9,7 @@ from .checks import as_array, node_ids
 from .errors import ModelError
 from .group import DOF_NAMES, ElementGroup
 from .link import LinkGroup
+from .planar_spring import PlanarSpringGroup
 from .spring import SpringGroup, SpringLaw, check_law
 
 _DOF_WORDS = {"all": [0, 1, 2, 3, 4, 5], "xyz": [0, 1, 2], "rxyz": [3, 4, 5]}
@@ -204,6 +205,17 @@ class Model:
                              f"({ids.size} nodes, {len(d)} DOFs)")
         dof_arr = np.asarray(d * ids.size if len(d) == 1 else d)
         group = SpringGroup(name, ids, dof_arr, law, one_sided)
+        check_law(group, law)
+        return self._add(group)
+
+    def add_planar_springs(self, nodes, law: SpringLaw, name: str = "planar springs"
+                           ) -> PlanarSpringGroup:
+        """Add springs on the horizontal displacement vector (ux, uy) of ``nodes``: one law on
+        its magnitude, the force along it (see :class:`fem.planar_spring.PlanarSpringGroup`)."""
+        ids = self._nodes(nodes, f"planar spring group '{name}'").ravel()
+        if ids.size == 0:
+            raise ModelError(f"planar spring group '{name}': no nodes given")
+        group = PlanarSpringGroup(name, ids, law)
         check_law(group, law)
         return self._add(group)
 

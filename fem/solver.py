@@ -196,7 +196,7 @@ def _fill_results(ctx: _Context, state: State, evals, r_full: np.ndarray) -> Non
     reactions = np.zeros(asm.n_full)
     reactions[asm.fixed_mask] = -r_full[asm.fixed_mask]
     for unit, gd, ev in zip(asm.units, asm.group_dofs, evals):
-        if getattr(unit, "kind", "") == "spring":
+        if getattr(unit, "to_ground", False):
             reactions -= np.bincount(gd.ravel(), weights=ev.force.ravel(), minlength=asm.n_full)
     resid = np.zeros(asm.n_full)
     resid[asm.free] = r_full[asm.free]

@@ -49,6 +49,8 @@ class SpringGroup(ElementGroup):
     """
 
     kind = "spring"
+    #: the force it carries comes from the ground: it counts in the reactions
+    to_ground = True
 
     def __init__(self, name: str, nodes: np.ndarray, dof, law: SpringLaw, one_sided=0) -> None:
         self.name = name

@@ -2,10 +2,12 @@
 
 At the governing station (largest sag of the heaviest rider, static, at the
 installation temperature) the structure is re-solved with parts made (nearly)
-rigid. The geometric share is the sag with every part rigid (rigid anchors,
-inextensible cable, the same cut length); then the parts are given back their
+rigid. The geometric share is the sag of the inextensible cable of the same
+cut length between rigid supports, solved exactly
+(:mod:`models.analysis.rigid_hang`); then the parts are given back their
 flexibility one after another, from the cable outward (cable, post, fasteners,
-soil, guys, braces), and each part's share is the sag it adds. The shares add
+soil, guys, braces), each re-solve keeping the parts not yet released 100 times
+stiffer, and each part's share is the sag it adds. The shares add
 up to the loaded sag exactly. Sag grows roughly as the square root of the
 slack fed into the line, so a part's share depends on what was released
 before it; the order is stated with the table.
@@ -81,13 +83,35 @@ def slack_budget(result) -> SlackBudget | None:
     notes = []
     sags = []
     try:
-        for i in range(len(parts)):
+        sags.append(_geometry(result, st.s, heavy.weight))
+        for i in range(1, len(parts)):
             sags.append(_sag_with(result, frozenset(parts[i:]), st.s, heavy.weight))
-    except (FemError, InputError) as exc:
+    except (FemError, InputError, ValueError) as exc:
         notes.append(f"a re-solve with rigid parts failed: {exc}")
         return SlackBudget(k, st.along, st.sag, float("nan"), {}, notes)
     sags.append(st.sag)
     shares = {part: sags[i + 1] - sags[i] for i, part in enumerate(parts)}
-    notes.append("parts made rigid by stiffness x 100 (each keeps 1 % of its give), released "
-                 "in the order " + ", ".join(PART_LABELS[p] for p in parts))
+    notes.append("geometry: the inextensible cable between rigid supports, solved exactly; "
+                 "parts not yet released made stiffer by 100 (each keeps 1 % of its give), "
+                 "released in the order " + ", ".join(PART_LABELS[p] for p in parts))
+    negative = [PART_LABELS[p] for p, v in shares.items() if v < 0]
+    if negative:
+        notes.append("a negative share (" + ", ".join(negative) + ") means that releasing "
+                     "the part made the loaded sag smaller: the parts interact (a post that "
+                     "leans toward the line under the installed pull can stand back up under "
+                     "the rider), and each share depends on what was released before it")
     return SlackBudget(k, st.along, st.sag, sags[0], shares, notes)
+
+
+def _geometry(result, s: float, weight: float) -> float:
+    """Sag of the inextensible cable of the installed cut length between the rigid
+    attachment points, with the rider at arc length ``s`` (exact)."""
+    from spanstay.models.analysis.rigid_hang import rigid_hang
+
+    spec = result.scenario.line(result.scenario.rider.line)
+    line = result.system.lines[spec.name]
+    d = line.end_xyz - line.start_xyz
+    span = float(np.hypot(d[0], d[1]))
+    _, sag = rigid_hang(span, float(d[2]), float(line.L0), spec.rope.weight_per_length, s,
+                        weight)
+    return sag

@@ -7,7 +7,7 @@
 - §1807.3.2.2, Eq. 18-2 (constrained at grade): d^2 = 4.25 P h / (S3 b),
   with S3 the allowable lateral bearing at depth d.
 - Table 1806.2 allowable lateral bearing, psf per foot of depth below grade;
-  §1806.3.2 lets it grow with depth up to 15 times the tabulated value (from
+  §1806.3.3 lets it grow with depth up to 15 times the tabulated value (from
   memory); §1806.3.4 allows twice the tabulated value for isolated poles that
   can accept 1/2 inch of ground-line motion (an explicit option here).
 
@@ -41,7 +41,7 @@ _SOIL_GROUPS = {
     "cl": "clay", "ml": "clay", "mh": "clay", "ch": "clay",
 }
 MAX_DEPTH_FOR_S1_FT = 12.0   # §1807.3.2.1: d not over 12 ft for computing S1
-DEPTH_INCREASE_CAP = 15.0    # §1806.3.2: at most 15 x tabulated value (from memory)
+DEPTH_INCREASE_CAP = 15.0    # §1806.3.3: at most 15 x tabulated value (from memory)
 
 
 def ibc_class_key(name: str) -> str:
@@ -138,7 +138,7 @@ def required_depth_constrained(load: np.ndarray | float, height: np.ndarray | fl
                                bearing_per_depth: np.ndarray | float) -> np.ndarray:
     """Required embedment by IBC Eq. 18-2 (slab or floor at grade), S3 at depth d, m.
 
-    With S3 = s d (up to the 15x cap of §1806.3.2), d^3 = 4.25 P h / (s b).
+    With S3 = s d (up to the 15x cap of §1806.3.3), d^3 = 4.25 P h / (s b).
     """
     P, h, b, s = np.broadcast_arrays(
         np.asarray(load, float) / LBF, np.asarray(height, float) / FT,

@@ -256,6 +256,7 @@ class GreenWood:
     MOR: float
     rho_green: float
     source: str
+    Fc: float = float("nan")  # Pa, compression parallel to grain (maximum crushing strength)
 
 
 def known_tree_species() -> list[str]:
@@ -271,4 +272,4 @@ def green_wood(species: str, where: str | None = None) -> GreenWood:
                          + ", ".join(known_tree_species()), where)
     rec = trees[k]
     return GreenWood(k, rec["E_MPa"] * MPA, rec["MOR_MPa"] * MPA, float(rec["rho_green"]),
-                     trees["source"])
+                     trees["source"], rec["Fc_MPa"] * MPA)

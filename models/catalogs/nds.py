@@ -137,6 +137,31 @@ def flat_use_factor(ref: DesignValues, size: DressedSize | None) -> Factor:
     return Factor("Cfu", "flat use", v, ("Fb",), "NDS Supplement Table 4A (from memory)")
 
 
+#: NDS 2018 Table 6.3.5 condition treatment factor Cct of round timber piles (from memory)
+CONDITION_TREATMENT = {"untreated": 1.0, "air-dried": 0.95, "kiln-dried": 0.90,
+                       "boulton": 0.95, "steamed": 0.80, "steamed-marine": 0.74}
+#: conditioning taken when the scenario does not say: the lowest land value, steaming
+#: (southern pine piles are commonly steam conditioned; our judgement, on the safe side)
+DEFAULT_CONDITIONING = "steamed"
+POLE_SIZE_REFERENCE = 13.5 * INCH  # NDS 6.3.8 (from memory)
+
+
+def pole_factors(diameter: float | None, conditioning: str | None) -> list[Factor]:
+    """Cct (NDS 6.3.5) on Fb, Fv, Fc and the size factor CF = (13.5 in / d)^(1/9) on Fb for a
+    round pole over 13.5 in at the section checked (NDS 6.3.8), both from memory."""
+    key = conditioning or DEFAULT_CONDITIONING
+    if key not in CONDITION_TREATMENT:
+        raise InputError(f"conditioning {conditioning!r} unknown; expected one of "
+                         + ", ".join(CONDITION_TREATMENT))
+    note = f"{key}{'' if conditioning else ' (not given: the safe-side default)'}, NDS Table 6.3.5"
+    out = [Factor("Cct", "condition treatment", CONDITION_TREATMENT[key], ("Fb", "Fv", "Fc"),
+                  note + " (from memory)")]
+    if diameter is not None and diameter > POLE_SIZE_REFERENCE:
+        out.append(Factor("CF", "size (round pole)", (POLE_SIZE_REFERENCE / diameter) ** (1 / 9),
+                          ("Fb",), "d > 13.5 in, NDS 6.3.8 (from memory)"))
+    return out
+
+
 def incising_factor(incised: bool) -> list[Factor]:
     """Ci for incised dimension lumber (NDS 4.3.8, from memory): 0.95 on E, Emin; 0.8 on Fb, Ft, Fc, Fv."""
     if not incised:
@@ -184,7 +209,9 @@ class AdjustedValues:
 
 def adjusted_values(ref: DesignValues, size: DressedSize | None = None, *,
                     duration: str = "ten minutes", wet: bool = False,
-                    incised: bool = False, flatwise: bool = False) -> AdjustedValues:
+                    incised: bool = False, flatwise: bool = False,
+                    pole_diameter: float | None = None,
+                    conditioning: str | None = None) -> AdjustedValues:
     """Apply CD, CM, CF, Cfu, Ci and Cr (off) to reference values (ASD).
 
     Parameters
@@ -202,6 +229,10 @@ def adjusted_values(ref: DesignValues, size: DressedSize | None = None, *,
         Preservative-treated incised lumber.
     flatwise
         Bending about the weak axis (dimension lumber flat-use factor).
+    pole_diameter, conditioning
+        Round poles (reference ``size_class`` "pole"): the largest diameter checked and
+        the conditioning before treatment, for Cct and the pole size factor
+        (:func:`pole_factors`).
     """
     cf = size_factors(ref, size)
     cf_fb = math.prod(f.value for f in cf if "Fb" in f.applies_to)
@@ -214,6 +245,8 @@ def adjusted_values(ref: DesignValues, size: DressedSize | None = None, *,
     factors += cf
     if flatwise:
         factors.append(flat_use_factor(ref, size))
+    if ref.size_class == "pole":
+        factors += pole_factors(pole_diameter, conditioning)
     factors += incising_factor(incised)
     factors.append(repetitive_member_factor())
     adj = AdjustedValues(ref, tuple(factors))

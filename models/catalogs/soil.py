@@ -28,6 +28,7 @@ from spanstay.models.catalogs.ibc_embedment import ibc_class_key
 
 WATER_UNIT_WEIGHT = 9810.0  # N/m^3, fresh water (rho g)
 KINDS = ("sand", "clay", "modulus")
+LOADINGS = ("static", "cyclic")
 FRICTION_ANGLE_RANGE_DEG = (20.0, 45.0)
 _DEPTH_TOL = 1e-6  # m, tolerance for layer contacts
 
@@ -59,6 +60,12 @@ class SoilLayer:
     ibc_class
         IBC Table 1806.2 class key (see ``models.catalogs.ibc_embedment``) for the code
         check; ``None`` when unknown.
+    loading
+        ``"static"`` or ``"cyclic"`` p-y curves for this layer (API sand A = 0.9,
+        Matlock 1970 cyclic clay). Static here; the scenario's default is cyclic
+        (``models.scenario.spec.DEFAULT_SOIL_LOADING``).
+    matlock_J
+        Matlock's empirical J (0.5 soft clay, 0.25 stiff clay).
     """
 
     top: float
@@ -72,6 +79,8 @@ class SoilLayer:
     modulus_constant: float | None = None
     modulus_gradient: float | None = None
     ibc_class: str | None = None
+    loading: str = "static"
+    matlock_J: float = 0.5
 
     @classmethod
     def from_spec(cls, spec: Any, **overrides: Any) -> "SoilLayer":
@@ -86,7 +95,7 @@ class SoilLayer:
             if isinstance(spec, Mapping):
                 if f.name in spec:
                     values[f.name] = spec[f.name]
-            elif hasattr(spec, f.name):
+            elif getattr(spec, f.name, None) is not None:
                 values[f.name] = getattr(spec, f.name)
         values.update(overrides)
         return cls(**values)
@@ -98,6 +107,12 @@ class SoilLayer:
 
     def validate(self, where: str = "soil.layer") -> None:
         """Raise InputError naming the first bad value of this layer."""
+        if self.loading not in LOADINGS:
+            raise InputError(f"loading {self.loading!r} is not known; expected 'static' or "
+                             "'cyclic'", where=f"{where}.loading")
+        if not (np.isfinite(self.matlock_J) and 0.0 < self.matlock_J <= 1.0):
+            raise InputError(f"matlock_J {self.matlock_J} must be between 0 and 1",
+                             where=f"{where}.matlock_J")
         if self.kind not in KINDS:
             raise InputError(
                 f"soil kind {self.kind!r} is not known; expected one of {', '.join(KINDS)}",
@@ -298,20 +313,27 @@ PRESETS: dict[str, dict[str, Any]] = {
         kind="sand", unit_weight=18.5e3, friction_angle_deg=33.0, k_initial=90 * LB_PER_IN3,
         ibc_class="sand",
         source="from memory: typical medium dense sand; k after Reese, Cox & Koop (1974)"),
-    "dense_sand_gravel": dict(
+    "dense_sand": dict(
         kind="sand", unit_weight=20.0e3, friction_angle_deg=38.0, k_initial=225 * LB_PER_IN3,
-        ibc_class="gravel",
-        source="from memory: typical dense sand and gravel; k after Reese, Cox & Koop (1974)"),
+        ibc_class="sand",
+        source="from memory: typical dense sand; k after Reese, Cox & Koop (1974); IBC "
+               "Table 1806.2 class 4 (sand, SW/SP): a sand is not the code's gravel class "
+               "unless a soils report says GW/GP"),
     "soft_clay": dict(
         kind="clay", unit_weight=16.5e3, undrained_shear_strength=20e3, eps50=0.02,
         ibc_class="clay",
         source="from memory: soft clay c_u 12-24 kPa, eps50 0.02 (Matlock 1970 range)"),
     "stiff_clay": dict(
-        kind="clay", unit_weight=19.5e3, undrained_shear_strength=100e3, eps50=0.005,
-        ibc_class="clay",
-        source="from memory: stiff clay c_u 96-192 kPa, eps50 0.005; uses the soft-clay "
-               "curve shape (Matlock 1970), common practice for a simple check"),
+        kind="clay", unit_weight=19.0e3, undrained_shear_strength=50e3, eps50=0.007,
+        matlock_J=0.25, ibc_class="clay",
+        source="from memory: stiff clay c_u 48-96 kPa, taken at the low end 50 kPa; eps50 "
+               "0.007 for that range (Reese & Van Impe); J = 0.25 as usual for stiff clay "
+               "(Matlock 1970); the soft-clay curve shape (Matlock 1970), common practice "
+               "for a simple check"),
 }
+
+#: Former preset names still read, mapped to their present names.
+PRESET_ALIASES = {"dense_sand_gravel": "dense_sand"}
 
 
 def preset_layer(name: str, top: float, bottom: float, **overrides: Any) -> SoilLayer:
@@ -319,6 +341,7 @@ def preset_layer(name: str, top: float, bottom: float, **overrides: Any) -> Soil
 
     Raises InputError for an unknown preset name.
     """
+    name = PRESET_ALIASES.get(name, name)
     if name not in PRESETS:
         raise InputError(f"soil preset {name!r} is not known; expected one of "
                          f"{', '.join(PRESETS)}", where="soil.preset")

@@ -17,9 +17,12 @@ errors.
   F_theta = Fc* Fc_perp' / (Fc* sin^2 theta + Fc_perp' cos^2 theta).
 - Block on soil: vertical pressure <= IBC 2021 Table 1806.2 presumptive
   allowable foundation pressure of the top soil layer (from memory).
-- Tree: root-plate moment <= the user's root-plate capacity; stem bending
-  stress at grade against the species' green modulus of rupture (a mean
-  clear-wood strength, not a design value); and the tree cautions.
+- Tree: root-plate moment <= the user's root-plate capacity (not checked
+  without an assessed one); stem compression at grade (bending + axial)
+  against the species' green compression parallel to grain / the tree factor
+  of safety (a mean clear-wood strength, not a design value); the tree cautions.
+- Timber members take the load duration of the state checked (see
+  :mod:`models.checks.check`), like the posts.
 """
 from __future__ import annotations
 
@@ -30,10 +33,13 @@ import numpy as np
 
 from spanstay.fem import Model, State
 from spanstay.models.analysis.anchor_shares import reaction_shares
+from spanstay.models.checks.check import RIDER_DURATION
 from spanstay.models.parts.braces import BuiltHBrace, BuiltKicker, BuiltMember, member_axial_force
 from spanstay.models.parts.guys import BuiltGuy, guy_state
 from spanstay.models.catalogs.ibc_embedment import PSF, ibc_class_key
-from spanstay.models.scenario.spec import DEFAULT_FACTOR_OF_SAFETY, DEFAULT_TERMINATION_EFFICIENCY
+from spanstay.models.scenario.spec import (DEFAULT_FACTOR_OF_SAFETY,
+                                           DEFAULT_SLIDING_FACTOR_OF_SAFETY,
+                                           DEFAULT_TERMINATION_EFFICIENCY)
 
 #: IBC 2021 Table 1806.2, presumptive allowable foundation pressure, psf (from memory)
 IBC_ALLOWABLE_BEARING_PSF = {
@@ -127,14 +133,15 @@ def guy_checks(anchor: str, guys: list[BuiltGuy], model: Model, state: State,
     return out
 
 
-def _adjusted(species: str, grade: str | None, section, wet: bool, where: str):
+def _adjusted(species: str, grade: str | None, section, wet: bool, where: str,
+              duration: str = RIDER_DURATION):
     from spanstay.models.catalogs import lumber
     from spanstay.models.catalogs.nds import adjusted_values
 
     size = (lumber.parse_size(section.nominal, where) if section.nominal
             else lumber.custom_size(section.width, section.depth))
     ref = lumber.design_values(species, grade or "No. 2", size, where)
-    return adjusted_values(ref, size, duration="ten minutes", wet=wet), size
+    return adjusted_values(ref, size, duration=duration, wet=wet), size
 
 
 def _rows(factors) -> tuple[dict, ...]:
@@ -143,14 +150,14 @@ def _rows(factors) -> tuple[dict, ...]:
 
 
 def member_checks(anchor: str, part: str, member: BuiltMember, state: State,
-                  wet: bool = True) -> list[AnchorCheck]:
+                  wet: bool = True, duration: str = RIDER_DURATION) -> list[AnchorCheck]:
     """Column (NDS 3.7.1, CP) or tension (NDS 3.8) check of a pinned timber member."""
     from spanstay.models.catalogs.nds import column_stability_factor
 
     n = float(np.min(member_axial_force(state, member)))  # most compressive
     sec = member.section
     area = sec.width * sec.depth
-    adj, _ = _adjusted(member.species, member.grade, sec, wet, part)
+    adj, _ = _adjusted(member.species, member.grade, sec, wet, part, duration)
     if n < 0:
         d = min(sec.width, sec.depth)
         le_d = KE_PINNED * member.length / d
@@ -199,23 +206,26 @@ def allowable_soil_bearing(ibc_class: str | None) -> tuple[float, str]:
 
 
 def kicker_checks(anchor: str, kicker: BuiltKicker, built, model: Model, state: State,
-                  top_soil_class: str | None = None, wet: bool = True) -> list[AnchorCheck]:
-    """Strut column check, end bearing on the post and on the block, block on soil."""
+                  top_soil_class: str | None = None, wet: bool = True,
+                  sliding_factor_of_safety: float = DEFAULT_SLIDING_FACTOR_OF_SAFETY,
+                  duration: str = RIDER_DURATION) -> list[AnchorCheck]:
+    """Strut column check, end bearing on the post and on the block, block on soil and
+    its sliding (:mod:`models.checks.sliding`)."""
     strut = kicker.strut
-    out = member_checks(anchor, "kicker strut", strut, state, wet)
+    out = member_checks(anchor, "kicker strut", strut, state, wet, duration)
     compression = -float(np.min(member_axial_force(state, strut)))
     sec = strut.section
     area = sec.width * sec.depth
     rise = abs(float(strut.axis[2]))
     incline = math.asin(min(rise, 1.0))  # strut angle from horizontal
-    adj, _ = _adjusted(strut.species, strut.grade, sec, wet, "kicker")
+    adj, _ = _adjusted(strut.species, strut.grade, sec, wet, "kicker", duration)
     # foot block: same wood as the strut, grain horizontal along the brace
     out.append(_bearing(anchor, "kicker foot block", compression, area, adj["Fc_star"],
                         adj["Fc_perp"], incline, "the block"))
     ref = (built.post_section or {}).get("ref")
     if ref is not None:
         from spanstay.models.catalogs.nds import adjusted_values
-        padj = adjusted_values(ref, None, duration="ten minutes", wet=wet)
+        padj = adjusted_values(ref, None, duration=duration, wet=wet)
         out.append(_bearing(anchor, "post at the kicker", compression, area, padj["Fc_star"],
                             padj["Fc_perp"], math.pi / 2 - incline, "the post face"))
     if kicker.block_area is not None:
@@ -227,6 +237,17 @@ def kicker_checks(anchor: str, kicker: BuiltKicker, built, model: Model, state: 
                                note=note,
                                finding="uplift: the strut lifts its block; hold it down"
                                if up < 0 else ""))
+        from spanstay.models.checks.sliding import block_sliding, resultant
+        brace = built.spec.brace
+        h, down = resultant(state.reactions[kicker.block_node, :3])
+        demand, cap, note = block_sliding(h, down, kicker.block_area, brace.block_width,
+                                          brace.block_depth, top_soil_class,
+                                          brace.block_friction, sliding_factor_of_safety)
+        out.append(AnchorCheck(anchor, "kicker block on soil", "sliding", demand, cap, "N",
+                               "base friction + passive pressure (IBC 2021 Table 1806.2, "
+                               "§1806.3.1, from memory) / factor of safety", note=note,
+                               finding="sliding: the block slides; embed it or hold it"
+                               if demand > cap else ""))
     return out
 
 
@@ -239,9 +260,9 @@ def h_brace_checks(anchor: str, brace: BuiltHBrace, state: State,
                    factor_of_safety: float = DEFAULT_FACTOR_OF_SAFETY,
                    efficiency: float = DEFAULT_TERMINATION_EFFICIENCY,
                    breaking_strength: float | None = None, rope_name: str = "",
-                   wet: bool = True) -> list[AnchorCheck]:
+                   wet: bool = True, duration: str = RIDER_DURATION) -> list[AnchorCheck]:
     """Rail (column or tension) and diagonal wire (rope strength; slack as a finding)."""
-    out = member_checks(anchor, "H-brace rail", brace.rail, state, wet)
+    out = member_checks(anchor, "H-brace rail", brace.rail, state, wet, duration)
     t = float(state.group(brace.diagonal).tension[0])
     if breaking_strength is not None:
         out.append(AnchorCheck(
@@ -253,8 +274,10 @@ def h_brace_checks(anchor: str, brace: BuiltHBrace, state: State,
     return out
 
 
-def tree_checks(anchor: str, built, model: Model, state: State) -> list[AnchorCheck]:
-    """Root-plate moment against the user's capacity; stem stress at grade against green MOR."""
+def tree_checks(anchor: str, built, model: Model, state: State,
+                tree_factor_of_safety: float = 3.0) -> list[AnchorCheck]:
+    """Root-plate moment against the user's capacity; stem compression at grade against
+    green compression parallel to grain / factor of safety."""
     from spanstay.models.catalogs import lumber
     from spanstay.models.parts.tree import stem_diameter
 
@@ -270,17 +293,25 @@ def tree_checks(anchor: str, built, model: Model, state: State) -> list[AnchorCh
     if tree.species is not None:
         green = lumber.green_wood(tree.species)
         d = float(stem_diameter(spec, 0.0))
-        stress = moment / (math.pi * d**3 / 32.0)
-        out.append(AnchorCheck(anchor, "stem at grade", "bending stress vs green MOR", stress,
-                               green.MOR, "Pa", green.source,
-                               note="green modulus of rupture is a mean clear-wood strength, "
-                                    "not a design value; decay and defects lower it"))
+        axial = max(float(state.reactions[built.grade_node, 2]), 0.0)
+        stress = moment / (math.pi * d**3 / 32.0) + axial / (math.pi * d * d / 4.0)
+        out.append(AnchorCheck(anchor, "stem at grade",
+                               "compression (bending + axial) vs green Fc / factor of safety",
+                               stress, green.Fc / tree_factor_of_safety, "Pa",
+                               green.source + "; factor of safety "
+                               f"{tree_factor_of_safety:g} (settings.tree_factor_of_safety; "
+                               "default 3, our judgement)",
+                               note="green wood fails first by crushing on the compression "
+                                    "face, so compression parallel to grain governs (green "
+                                    f"MOR {green.MOR / 1e6:.3g} MPa is higher); a mean "
+                                    "clear-wood strength: decay and defects lower it"))
     return out
 
 
 def check_anchor(model: Model, built, state: State,
                  factor_of_safety: float = DEFAULT_FACTOR_OF_SAFETY,
-                 top_soil_class: str | None = None) -> AnchorReport:
+                 top_soil_class: str | None = None, settings=None,
+                 duration: str = RIDER_DURATION) -> AnchorReport:
     """Every guy, brace and tree check of one anchor, its top displacement and shares."""
     from spanstay.models.common.cautions import TREE_CAUTIONS
 
@@ -291,13 +322,18 @@ def check_anchor(model: Model, built, state: State,
         checks += guy_checks(name, built.guys, model, state, factor_of_safety)
     b = built.brace
     if isinstance(b, BuiltKicker):
-        checks += kicker_checks(name, b, built, model, state, top_soil_class)
+        checks += kicker_checks(name, b, built, model, state, top_soil_class,
+                                sliding_factor_of_safety=getattr(
+                                    settings, "sliding_factor_of_safety",
+                                    DEFAULT_SLIDING_FACTOR_OF_SAFETY), duration=duration)
     elif isinstance(b, BuiltHBrace):
         rope = built.spec.brace.diagonal_rope
         checks += h_brace_checks(name, b, state, factor_of_safety,
-                                 breaking_strength=rope.breaking_strength, rope_name=rope.name)
+                                 breaking_strength=rope.breaking_strength, rope_name=rope.name,
+                                 duration=duration)
     if built.spec.kind == "tree":
-        checks += tree_checks(name, built, model, state)
+        checks += tree_checks(name, built, model, state,
+                              float(getattr(settings, "tree_factor_of_safety", 3.0)))
         cautions = TREE_CAUTIONS
     top = state.translation[built.top_node].copy()
     return AnchorReport(name, checks, top, reaction_shares(model, built, state), cautions)

@@ -7,7 +7,8 @@ known, so it is taken as normal ("ten years", CD = 1.0), a judgement that is
 on the safe side of "ten minutes" (1.6) and of "impact" (2.0), which would
 also count the dynamic factor twice. The installed pull (pretension and self
 weight) is permanent: when the installed state is given it is checked with
-CD = 0.9.
+CD = 0.9. The same rule holds for every timber part: posts, plies and fasteners,
+kicker struts, H-brace rails and their bearing.
 """
 from __future__ import annotations
 

@@ -49,9 +49,16 @@ def _timber(anchor, cache: dict) -> tuple | None:
     return out
 
 
-def adjusted_outdoor(ref, size, duration: str, flatwise: bool = False) -> AdjustedValues:
-    """NDS adjusted values of an outdoor post: wet service (CM), CD, CF (and Cfu)."""
-    return adjusted_values(ref, size, duration=duration, wet=True, flatwise=flatwise)
+def adjusted_outdoor(ref, size, duration: str, flatwise: bool = False, post=None
+                     ) -> AdjustedValues:
+    """NDS adjusted values of an outdoor post: wet service (CM), CD, CF (and Cfu); Ci of an
+    incised post; Cct and the pole size factor of a round pole (its base diameter)."""
+    extra = {}
+    if post is not None:
+        extra = dict(incised=bool(getattr(post, "incised", False)),
+                     conditioning=getattr(post, "conditioning", None),
+                     pole_diameter=getattr(post, "base_diameter", None))
+    return adjusted_values(ref, size, duration=duration, wet=True, flatwise=flatwise, **extra)
 
 
 def section_ends(model, group: str, state: State, base_z: float):
@@ -106,8 +113,8 @@ def solid_post_checks(system: System, anchor, state: State, duration: str = RIDE
     info = anchor.post_section
     L = post.height
     le = KE_CANTILEVER * L
-    edge = adjusted_outdoor(ref, size, duration)
-    flat = adjusted_outdoor(ref, size, duration, flatwise=True)
+    edge = adjusted_outdoor(ref, size, duration, post=post)
+    flat = adjusted_outdoor(ref, size, duration, flatwise=True, post=post)
     Emin = edge["Emin"]
     parts = [(anchor.groups["post"][0], True)]
     if spec.footing is not None and spec.footing.kind == "embedded":

@@ -1,7 +1,8 @@
 """Checks of a footing in the soil: ground-line tilt, ground-line motion for doubled bearing,
-IBC 2021 embedment depth. The soil reaction against its p-y limit (p/p_u) is reported, not
-checked: the curves cap each reaction at its limit, so the ratio cannot exceed 1 and cannot
-fail (:func:`soil_limit_ratio`)."""
+IBC 2021 embedment depth, the ultimate lateral capacity (pushover,
+:mod:`models.checks.lateral_capacity`). The soil reaction against its p-y limit (p/p_u)
+is reported in that check's note: the curves cap each reaction at its limit, so the
+ratio cannot exceed 1 and is not a check of its own (:func:`soil_limit_ratio`)."""
 from __future__ import annotations
 
 import math
@@ -81,14 +82,24 @@ def soil_checks(system: System, anchor, state: State, cache: dict | None = None)
     if placed is None:
         return out
     fs = spec.footing
-    V, M, _, _ = _ground_actions(system, placed, state)
+    from spanstay.models.checks.vertical import vertical_checks
+    cache = {} if cache is None else cache
+    out += vertical_checks(system, anchor, state, cache)
+    if fs.kind == "pier":
+        from spanstay.models.checks.concrete import pier_checks
+        out += pier_checks(system, anchor, state, cache)
+    V, M, ratio, _ = _ground_actions(system, placed, state)
+    if has_soil_limit(placed) and V > 1.0:
+        from spanstay.models.checks.lateral_capacity import lateral_capacity_check
+        out.append(lateral_capacity_check(anchor, V, M, ratio,
+                                          float(system.scenario.settings.soil_factor_of_safety),
+                                          cache))
     if fs.double_lateral_bearing:
         move = float(np.hypot(*state.translation[anchor.grade_node][:2]))
         out.append(Check(f"anchor.{name}.footing.ground_motion", "footing", name,
                          "horizontal motion at grade (condition of doubled lateral bearing)",
                          move, IBC_DOUBLED_MOTION, "length",
                          source="IBC 2021 §1806.3.4 (1/2 inch at the ground surface)"))
-    cache = {} if cache is None else cache
     key = ("ibc", name)
     if key not in cache:
         cache[key] = _ibc_footing(anchor)

@@ -28,7 +28,7 @@ from spanstay.models.checks.deflection import deflection_checks
 from spanstay.models.checks.laminated import embedded_laminated_checks, laminated_post_checks
 from spanstay.models.checks.line import line_checks
 from spanstay.models.checks.posts import solid_post_checks
-from spanstay.models.checks.soil import has_soil_limit, soil_checks, soil_limit_ratio
+from spanstay.models.checks.soil import has_soil_limit, soil_checks
 from spanstay.models.checks.verdict import NotChecked
 from spanstay.models.parts.system import System
 
@@ -89,19 +89,21 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
         second = getattr(getattr(anchor, "brace", None), "second", None)
         if second is not None:  # an H-brace's second post: its own post and footing checks
             out += anchor_part_checks(system, state, second, duration, cache)
-    out += extra_anchor_checks(system, state)
+    out += extra_anchor_checks(system, state, duration)
     for c in out:
         c.governing = dict(governing)
     return out
 
 
-def extra_anchor_checks(system: System, state: State, fos: float | None = None) -> list[Check]:
+def extra_anchor_checks(system: System, state: State, duration: str = RIDER_DURATION,
+                        fos: float | None = None) -> list[Check]:
     """Guy, brace and tree checks of every anchor, from :mod:`models.checks.anchors`.
 
     Each ``AnchorCheck`` becomes a :class:`Check` with id
     ``anchor.<name>.<part>.<check>`` (lower case, words joined by "_"); a
     finding (slack guy, pulled-out ground anchor, lifting block) is put in
-    front of the note. ``fos`` replaces the scenario's factor of safety on ropes.
+    front of the note. ``fos`` replaces the scenario's factor of safety on ropes
+    (the emergency arrest checks them against their breaking strength).
     """
     from spanstay.models.checks.anchors import check_anchor, top_soil_class
 
@@ -109,7 +111,8 @@ def extra_anchor_checks(system: System, state: State, fos: float | None = None) 
     soil = top_soil_class(system.scenario.ground)
     out = []
     for anchor in system.anchors.values():
-        report = check_anchor(system.model, anchor, state, fos, soil)
+        report = check_anchor(system.model, anchor, state, fos, soil,
+                              settings=system.scenario.settings, duration=duration)
         for c in report.checks:
             note = "; ".join(t for t in (f"finding: {c.finding}" if c.finding else "", c.note) if t)
             out.append(Check(f"anchor.{c.anchor}.{slug(c.part)}.{slug(c.check)}", c.part,
@@ -138,6 +141,17 @@ def anchor_part_checks(system: System, state: State, anchor, duration: str = RID
     return out
 
 
+def _anchors_and_second_posts(system: System) -> list:
+    """Every anchor, each followed by its H-brace's second post (which has its own footing)."""
+    out = []
+    for anchor in system.anchors.values():
+        out.append(anchor)
+        second = getattr(getattr(anchor, "brace", None), "second", None)
+        if second is not None:
+            out.append(second)
+    return out
+
+
 def unchecked_parts(system: System, states=()) -> list[NotChecked]:
     """What ``structural_checks`` does not check in this system, each with its reason.
 
@@ -145,9 +159,14 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
     against its p-y limit, reported with the soil's capacity item.
     """
     out: list[NotChecked] = []
-    for anchor in system.anchors.values():
+    for anchor in _anchors_and_second_posts(system):
         spec = anchor.spec
         name = f"anchor '{spec.name}'"
+        brace = getattr(anchor, "brace", None)
+        if getattr(brace, "kind", None) == "kicker" and brace.block_area is None:
+            out.append(NotChecked(name, "the kicker foot's bearing and sliding on the soil",
+                                  "no block_width and block_length given: the foot is held "
+                                  "rigidly in the model"))
         if spec.kind == "tree":
             tree = spec.tree
             if tree is None or tree.root_plate_capacity is None:
@@ -156,29 +175,28 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
                                       "assess the tree and give it"))
             out.append(NotChecked(name, "the living tree as a whole (decay, species, health)",
                                   "only the root plate (against the given capacity) and the stem "
-                                  "stress (against green MOR) are checked: have an arborist "
-                                  "assess it"))
+                                  "compression (against green Fc / factor of safety) are "
+                                  "checked: have an arborist assess it"))
             continue
         if spec.post.kind != "laminated" and (anchor.post_section or {}).get("ref") is None:
             out.append(NotChecked(name, "post stresses", "no species and grade given"))
         if spec.footing is not None and spec.footing.kind == "pier":
-            out.append(NotChecked(name, "the concrete pier itself (flexure, shear, "
-                                        "reinforcement, bearing of the post in the pier)",
-                                  "spanstay has no concrete pier check yet"))
+            out.append(NotChecked(name, "the post's bearing and embedment in its concrete pier, "
+                                        "and the pier's bar development",
+                                  "spanstay checks the pier's flexure and shear only"))
         if anchor.footing is not None:
-            if has_soil_limit(anchor.footing):
-                ratio, length = soil_limit_ratio(system, anchor, states) if states else (0.0, 0.0)
-                seen = (f"; largest p/p_u {ratio:.2f}, soil at its limit over {length:.2f} m"
-                        if states else "")
-                out.append(NotChecked(name, "the soil's ultimate lateral capacity",
-                                      "the p-y curves cap each soil reaction at its limit, so "
-                                      "p/p_u cannot exceed 1 and is reported, not checked"
-                                      + seen))
-            else:
-                out.append(NotChecked(name, "soil utilization", "a linear-modulus soil has no "
-                                      "ultimate resistance; the tilt and IBC checks still apply"))
-            out.append(NotChecked(name, "uplift, end bearing and the footing's own weight",
-                                  "the footing toe is held vertically in the model"))
+            if not has_soil_limit(anchor.footing):
+                out.append(NotChecked(name, "soil utilization and the soil's ultimate lateral "
+                                      "capacity", "a linear-modulus soil has no ultimate "
+                                      "resistance; the tilt and IBC checks still apply"))
+            out.append(NotChecked(name, "settlement of the footing",
+                                  "the footing toe is held vertically in the model; its "
+                                  "reaction is checked for end bearing and uplift"))
+            toe = anchor.footing.profile.layer_at(anchor.footing.footing.depth)
+            if anchor.footing.profile.layers[int(toe)].ibc_class is None:
+                out.append(NotChecked(name, "end bearing under the toe",
+                                      "the soil layer at the toe has no ibc_class (give its "
+                                      "Table 1806.2 class)"))
             layers = anchor.footing.profile.layers
             if any(lay.ibc_class is None for lay in layers if lay.top < anchor.footing.footing.depth):
                 out.append(NotChecked(name, "IBC 2021 embedment depth (Eq. 18-1/18-2)",

@@ -44,7 +44,8 @@ SECTION_TABLES = {"section", "ply", "member", "rail"}
 #: keys that are plain numbers (no unit)
 PLAIN = {"factor_of_safety", "dynamic_factor", "termination_efficiency", "segments", "stations",
          "rolling_resistance", "plies", "rows", "eps50", "friction_angle_deg", "stack_angle_deg",
-         "direction_deg"}
+         "direction_deg", "soil_factor_of_safety", "uplift_factor_of_safety",
+         "sliding_factor_of_safety", "tree_factor_of_safety", "matlock_J", "block_friction"}
 DEGREES = {"friction_angle_deg", "stack_angle_deg", "direction_deg"}
 
 

@@ -81,7 +81,7 @@ def _new_figure(size_px: tuple[int, int], dpi: int):
 def _save(fig, path: str | Path, dpi: int) -> Path:
     out = Path(path)
     out.parent.mkdir(parents=True, exist_ok=True)
-    fig.savefig(out, dpi=dpi, facecolor=_PAPER, format="png")
+    fig.savefig(out, dpi=dpi, facecolor=_PAPER, format="png", pil_kwargs={"compress_level": 3})
     return out
 
 

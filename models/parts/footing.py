@@ -2,8 +2,10 @@
 
 The embedded member is its own beam line from the ground-line node down to
 the toe, meshed with nodes at every layer contact. Every embedded node gets a
-soil spring in x and in y (the same p-y curve; the soil is taken as isotropic
-in plan and the two directions as independent) with its tributary length;
+planar soil spring (``fem.PlanarSpringGroup``: the p-y curve on the magnitude
+of the horizontal displacement, the reaction along it, so the soil is
+isotropic in plan and a pull in any direction meets the same soil) with its
+tributary length;
 where a node sits on a layer contact, each half of its tributary length gets
 the curve of its own layer. The toe is held vertically and against twist;
 optional linear base springs add shear and moment resistance at the toe.
@@ -222,11 +224,22 @@ class PlacedFooting:
     nodes: np.ndarray
     depths: np.ndarray
     member_group: str
-    spring_groups: tuple[str, str]
+    spring_groups: tuple[str, ...]
     spring_node: np.ndarray
     curves: CombinedCurves
     grade_elevation: float = 0.0
     extra_groups: list[str] = field(default_factory=list)
+    #: one planar spring group (True), or separate x and y groups (one-sided comparisons)
+    planar: bool = True
+
+    def spring_motion(self, state: State) -> tuple[np.ndarray, np.ndarray]:
+        """(ns, 2) horizontal displacement and soil reaction force (N) of every spring."""
+        if self.planar:
+            g = state.group(self.spring_groups[0])
+            return np.asarray(g.displacement), np.asarray(g.force)
+        gx, gy = (state.group(n) for n in self.spring_groups)
+        return (np.column_stack([gx.displacement, gy.displacement]),
+                np.column_stack([gx.force, gy.force]))
 
     @property
     def grade_node(self) -> int:
@@ -258,8 +271,8 @@ def add_footing(model: Model, grade_node: int, footing: Footing, profile: SoilPr
                 name: str = "footing", one_sided: int = 0) -> PlacedFooting:
     """Add a footing below ``grade_node`` (a node at the ground surface) of ``model``.
 
-    Adds the embedded beam line straight down from the node, soil springs in
-    x and y at every embedded node, the toe supports (uz and twist fixed) and
+    Adds the embedded beam line straight down from the node, a planar soil
+    spring at every embedded node, the toe supports (uz and twist fixed) and
     any base springs. Group names start with ``name``.
 
     Parameters
@@ -273,9 +286,10 @@ def add_footing(model: Model, grade_node: int, footing: Footing, profile: SoilPr
     name
         Prefix of the new element groups; unique per footing in one model.
     one_sided
-        0 (soil on both faces). +1 lets the x springs resist only +x motion
-        (passive pressure on the front face only, as Broms' hand method
-        assumes); for comparisons with hand methods.
+        0 (soil on both faces, planar springs). +1 uses separate x and y
+        springs, the x springs resisting only +x motion (passive pressure on
+        the front face only, as Broms' hand method assumes); for comparisons
+        with hand methods along x.
 
     Returns
     -------
@@ -294,9 +308,13 @@ def add_footing(model: Model, grade_node: int, footing: Footing, profile: SoilPr
     s_node, s_depth, s_trib, s_layer = _springs(depths, profile)
     curves = curves_for_profile(profile, s_depth, footing.width, s_trib, footing.py_model,
                                 footing.cyclic, layer=s_layer)
-    groups = (f"{name}.soil_x", f"{name}.soil_y")
-    model.add_springs(nodes[s_node], "ux", curves, one_sided=one_sided, name=groups[0])
-    model.add_springs(nodes[s_node], "uy", curves, name=groups[1])
+    if one_sided == 0:
+        groups: tuple[str, ...] = (f"{name}.soil",)
+        model.add_planar_springs(nodes[s_node], curves, name=groups[0])
+    else:
+        groups = (f"{name}.soil_x", f"{name}.soil_y")
+        model.add_springs(nodes[s_node], "ux", curves, one_sided=one_sided, name=groups[0])
+        model.add_springs(nodes[s_node], "uy", curves, name=groups[1])
     toe = int(nodes[-1])
     model.fix(toe, ["uz", "rz"])
     extra = []
@@ -307,7 +325,7 @@ def add_footing(model: Model, grade_node: int, footing: Footing, profile: SoilPr
                 model.add_springs(toe, d, LinearLaw(value), name=f"{name}.{tag}_{d}")
                 extra.append(f"{name}.{tag}_{d}")
     return PlacedFooting(footing, profile, name, nodes, depths, member, groups, s_node, curves,
-                         float(top[2]), extra)
+                         float(top[2]), extra, planar=one_sided == 0)
 
 
 @dataclass
@@ -354,17 +372,14 @@ def footing_response(placed: PlacedFooting, model: Model, state: State,
     axis = np.cross([0.0, 0.0, 1.0], d)  # rotation axis that leans the top toward d
     u = state.u[placed.nodes]
     disp = u[:, :3] @ d
-    fx = state.group(placed.spring_groups[0]).force
-    fy = state.group(placed.spring_groups[1]).force
+    uv, fv = placed.spring_motion(state)
     n = placed.nodes.size
     sn = placed.spring_node
-    force = np.bincount(sn, weights=fx * d[0] + fy * d[1], minlength=n)
+    force = np.bincount(sn, weights=fv[:, 0] * d[0] + fv[:, 1] * d[1], minlength=n)
     trib = np.bincount(sn, weights=placed.curves.tributary, minlength=n)
     pu_x = np.where(np.isfinite(placed.curves.p_ultimate), placed.curves.p_ultimate, 0.0)
     p_ult = np.bincount(sn, weights=pu_x * placed.curves.tributary, minlength=n) / trib
-    ux = state.group(placed.spring_groups[0]).displacement
-    uy = state.group(placed.spring_groups[1]).displacement
-    util = np.maximum(placed.curves.utilization(ux), placed.curves.utilization(uy))
+    util = placed.curves.utilization(np.hypot(uv[:, 0], uv[:, 1]))
     ratio = np.zeros(n)
     np.maximum.at(ratio, sn, util)
     moment, shear = _member_actions(model.group(placed.member_group),

@@ -162,7 +162,8 @@ def _add_footing(model: Model, built: BuiltAnchor, spec: AnchorSpec, ground: Gro
     post_width = _post_width(spec)
     if fs.kind == "pier":
         footing = Footing(depth=fs.depth, width=fs.pier_diameter,
-                          section=concrete_pier_section(fs.pier_diameter), kind="pier",
+                          section=concrete_pier_section(fs.pier_diameter,
+                                                        fs.concrete_strength), kind="pier",
                           post_width=post_width, orientation=tuple(_across(pull)), where=where)
     else:
         info = built.post_section or {}

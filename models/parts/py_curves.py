@@ -11,7 +11,7 @@ displacement per spring; an optional index array ``i`` selects a subset.
 
 Curves:
 - ``APISandCurve``: API RP 2A sand, p = A p_u tanh(k z y / (A p_u)).
-- ``MatlockClayCurve``: Matlock (1970) soft clay, static, cube-root shape.
+- ``MatlockClayCurve``: Matlock (1970) soft clay, static or cyclic, cube-root shape.
 - ``ElasticPlasticCurve``: linear up to p_u, then flat.
 - ``UserModulusCurve``: linear with slope E_s = const + gradient z, optionally capped.
 
@@ -173,7 +173,14 @@ class APISandCurve(PYCurve):
 
 
 class MatlockClayCurve(PYCurve):
-    """Matlock (1970) soft clay, static: p = 0.5 p_u (y/y50)^(1/3) up to 8 y50, then p_u.
+    """Matlock (1970) soft clay: p = 0.5 p_u (y/y50)^(1/3).
+
+    Static: up to 8 y50, then p_u. Cyclic (Matlock 1970, also API RP 2GEO
+    §8.5, from memory): the cube root is capped at 0.72 p_u and held to
+    3 y50; below the transition depth z_r = 6 c D / (gamma' D + J c), where
+    the wedge gives way to flow round the pile, the resistance then falls
+    linearly to 0.72 p_u z/z_r at 15 y50 and stays there (gamma' = sigma'_v / z,
+    the mean effective unit weight above the spring).
 
     y50 = 2.5 eps50 D. The cube root has an infinite slope at y = 0, which no
     Newton solver can use, so below ``linear_fraction * y50`` the curve
@@ -188,30 +195,57 @@ class MatlockClayCurve(PYCurve):
     vertical_stress
         sigma'_v at each spring (Pa).
     J
-        Matlock's J, 0.5 for soft clay (0.25 is also quoted for stiffer clay).
+        Matlock's J, 0.5 for soft clay (0.25 is usual for stiffer clay).
+    cyclic
+        Matlock's cyclic curve instead of the static one.
     """
 
     def __init__(self, depth, width, tributary, undrained_shear_strength, eps50,
-                 vertical_stress, J: float = 0.5, linear_fraction: float = 1e-3) -> None:
+                 vertical_stress, J: float = 0.5, linear_fraction: float = 1e-3,
+                 cyclic: bool = False) -> None:
         super().__init__(depth, width, tributary)
         self.shear_strength = self._param(undrained_shear_strength)
         self.eps50 = self._param(eps50)
         self.y50 = 2.5 * self.eps50 * self.width
-        self.p_ultimate = matlock_ultimate(self.shear_strength, self.depth, self.width,
-                                           self._param(vertical_stress), J)
+        sv = self._param(vertical_stress)
+        J = self._param(J)
+        self.matlock_p_u = matlock_ultimate(self.shear_strength, self.depth, self.width, sv, J)
+        self.cyclic = bool(cyclic)
+        gamma = np.where(self.depth > 0, sv / np.where(self.depth > 0, self.depth, 1.0), 0.0)
+        self.transition_depth = 6.0 * self.shear_strength * self.width / (
+            gamma * self.width + J * self.shear_strength)
+        self.p_ultimate = (CYCLIC_CAP * self.matlock_p_u if self.cyclic
+                           else self.matlock_p_u.copy())
         self.linear_fraction = float(linear_fraction)
 
     def _branch(self, a, sel):
-        pu, y50 = self.p_ultimate[sel], self.y50[sel]
+        pu, y50 = self.matlock_p_u[sel], self.y50[sel]
         r = a / y50
         rt = self.linear_fraction
         k_lin = 0.5 * pu * rt ** (-2.0 / 3.0) / y50
         rr = np.maximum(r, rt)
         p_cube = 0.5 * pu * np.cbrt(rr)
         dp_cube = pu / (6.0 * y50) * rr ** (-2.0 / 3.0)
-        p = np.where(r < rt, k_lin * a, np.where(r < 8.0, p_cube, pu))
-        dp = np.where(r < rt, k_lin, np.where(r < 8.0, dp_cube, 0.0))
+        if not self.cyclic:
+            p = np.where(r < rt, k_lin * a, np.where(r < 8.0, p_cube, pu))
+            dp = np.where(r < rt, k_lin, np.where(r < 8.0, dp_cube, 0.0))
+            return p, dp
+        cap = CYCLIC_CAP * pu
+        shallow = np.minimum(self.depth[sel] / self.transition_depth[sel], 1.0)
+        low = cap * shallow  # residual resistance above the transition depth
+        slope = (low - cap) / (12.0 * y50)  # from 3 y50 to 15 y50
+        falling = cap + slope * (r - 3.0) * y50
+        p = np.where(r < rt, k_lin * a,
+                     np.where(p_cube < cap, p_cube,
+                              np.where(r < 3.0, cap, np.where(r < 15.0, falling, low))))
+        dp = np.where(r < rt, k_lin,
+                      np.where(p_cube < cap, dp_cube,
+                               np.where(r < 3.0, 0.0, np.where(r < 15.0, slope, 0.0))))
         return p, dp
+
+
+#: Matlock (1970) cyclic clay: largest resistance as a fraction of the static p_u
+CYCLIC_CAP = 0.72
 
 
 class ElasticPlasticCurve(PYCurve):
@@ -308,7 +342,9 @@ def curves_for_profile(profile: SoilProfile, depth, width, tributary,
         ``"modulus"`` layers are always linear with E_s = const + gradient z, capped
         by Broms (friction angle given) or Matlock (strength given) p_u if any.
     cyclic
-        Cyclic API sand (A = 0.9).
+        Cyclic curves in every layer (API sand A = 0.9, Matlock cyclic clay); a
+        layer's own ``loading = "cyclic"`` does the same for that layer. The
+        ``elastic_plastic`` model keeps the static limits (hand-method comparisons).
     layer
         Layer index of each spring; by default the layer at its depth. Give it
         for the half of a node's tributary length that lies in the layer above.
@@ -327,15 +363,18 @@ def curves_for_profile(profile: SoilProfile, depth, width, tributary,
             continue
         args = (z[idx], D[idx], L[idx])
         if soil.kind == "sand" and model == "api":
-            curve = APISandCurve(*args, soil.friction_angle_deg, soil.k_initial, sv[idx], cyclic)
+            curve = APISandCurve(*args, soil.friction_angle_deg, soil.k_initial, sv[idx],
+                                 cyclic or soil.loading == "cyclic")
         elif soil.kind == "sand":
             curve = ElasticPlasticCurve(*args, soil.k_initial * z[idx],
                                         broms_sand_ultimate(soil.friction_angle_deg, D[idx],
                                                             sv[idx]))
         elif soil.kind == "clay" and model == "api":
-            curve = MatlockClayCurve(*args, soil.undrained_shear_strength, soil.eps50, sv[idx])
+            curve = MatlockClayCurve(*args, soil.undrained_shear_strength, soil.eps50, sv[idx],
+                                     J=soil.matlock_J, cyclic=cyclic or soil.loading == "cyclic")
         elif soil.kind == "clay":
-            pu = matlock_ultimate(soil.undrained_shear_strength, z[idx], D[idx], sv[idx])
+            pu = matlock_ultimate(soil.undrained_shear_strength, z[idx], D[idx], sv[idx],
+                                  soil.matlock_J)
             y50 = 2.5 * soil.eps50 * D[idx]
             curve = ElasticPlasticCurve(*args, 0.5 * pu / y50, pu)
         else:

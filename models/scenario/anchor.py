@@ -22,11 +22,12 @@ GROUND_ANCHOR_KEYS = ("stiffness", "capacity")
 BRACE_KINDS = ("kicker", "h-brace")
 BRACE_KEYS = ("kind", "direction", "attach_height", "foot_distance", "member", "species",
               "grade", "block_width", "block_length", "second_post", "second_footing",
-              "distance", "rail_height", "rail", "diagonal_rope", "diagonal_pretension")
+              "distance", "rail_height", "rail", "diagonal_rope", "diagonal_pretension",
+              "block_depth", "block_friction")
 TREE_KEYS = ("diameter_at_grade", "diameter_at_attachment", "attachment_height", "E_green",
              "root_plate_stiffness", "root_plate_capacity", "species")
 _KICKER_ONLY = ("attach_height", "foot_distance", "member", "block_width",
-                "block_length")
+                "block_length", "block_depth", "block_friction")
 _H_ONLY = ("second_post", "second_footing", "distance", "rail_height", "rail",
            "diagonal_rope", "diagonal_pretension")
 
@@ -133,7 +134,10 @@ def read_brace(table: Table, post: PostSpec) -> BraceSpec:
             block_width=table.quantity("block_width", "length", None, positive=True,
                                        maximum=limits.POST_SIZE_MAX),
             block_length=table.quantity("block_length", "length", None, positive=True,
-                                        maximum=limits.POST_SIZE_MAX))
+                                        maximum=limits.POST_SIZE_MAX),
+            block_depth=table.quantity("block_depth", "length", 0.0, minimum=0.0,
+                                       maximum=limits.POST_SIZE_MAX),
+            block_friction=table.number("block_friction", None, positive=True, maximum=1.0))
     second = read_post(table.table("second_post", POST_KEYS, required=True))
     footing_table = table.table("second_footing", FOOTING_KEYS)
     rail = read_section(table.raw("rail", expected='a nominal size like "4x4"'),

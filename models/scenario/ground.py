@@ -9,12 +9,12 @@ from spanstay.models.common.errors import InputError
 from spanstay.models.catalogs.ibc_embedment import ibc_class_key
 from spanstay.models.scenario.limits import SOIL_DEPTH_MAX
 from spanstay.models.scenario.reader import REQUIRED, Table, read_quantity
-from spanstay.models.scenario.spec import GroundSpec, SoilLayerSpec
+from spanstay.models.scenario.spec import DEFAULT_SOIL_LOADING, GroundSpec, SoilLayerSpec
 
 SOIL_KINDS = soil.KINDS
 LAYER_KEYS = ("top", "bottom", "preset", "kind", "unit_weight", "friction_angle",
               "k_initial", "undrained_shear_strength", "eps50", "modulus_constant",
-              "modulus_gradient", "ibc_class")
+              "modulus_gradient", "ibc_class", "loading", "matlock_J")
 GROUND_KEYS = ("profile", "soil", "water_table")
 #: Keys each kind of layer may hold (a modulus layer may be capped by a
 #: friction angle or an undrained strength).
@@ -31,7 +31,8 @@ _TOUCH = 1e-6  # m: layer faces closer than this are taken as touching
 
 def read_layer(table: Table) -> SoilLayerSpec:
     """One ``[[...soil]]`` layer table; a ``preset`` fills values not given."""
-    preset = table.text("preset", None, soil.PRESETS)
+    preset = table.text("preset", None, (*soil.PRESETS, *soil.PRESET_ALIASES))
+    preset = soil.PRESET_ALIASES.get(preset, preset)
     base = {k: v for k, v in soil.PRESETS[preset].items()} if preset else {}
     kind = table.text("kind", base.get("kind", REQUIRED), SOIL_KINDS)
     if preset and kind != base["kind"]:
@@ -78,6 +79,12 @@ def read_layer(table: Table) -> SoilLayerSpec:
         if not (values["modulus_constant"] or values["modulus_gradient"]):
             raise InputError("the layer has no stiffness: modulus_constant and "
                              "modulus_gradient are both zero", table.path)
+    values["loading"] = table.text("loading", DEFAULT_SOIL_LOADING, soil.LOADINGS)
+    if kind == "clay":
+        values["matlock_J"] = table.number("matlock_J", base.get("matlock_J", 0.5),
+                                           positive=True, maximum=1.0)
+    else:
+        table.forbid(["matlock_J"], f"to a {kind} layer (it is Matlock's clay factor)")
     ibc = table.text("ibc_class", base.get("ibc_class"))
     if ibc is not None:
         ibc = _ibc_key(ibc, table.where("ibc_class"))

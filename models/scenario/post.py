@@ -26,11 +26,12 @@ OVERRIDE_KEYS = {"E": "pressure", "G": "pressure", "Emin": "pressure", "Fb": "pr
                  "density": "density"}
 POST_KEYS = ("kind", "height", "species", "grade", "nominal", "width", "depth", "diameter",
              "top_diameter", "base_diameter", "plies", "ply", "stack", "fastener",
+             "incised", "conditioning",
              *OVERRIDE_KEYS)
 FASTENER_KEYS = ("kind", "size", "diameter", "length", "spacing", "rows", "staggered",
                  "predrilled", "slip_modulus")
 FOOTING_KEYS = ("kind", "depth", "pier_diameter", "backfill", "base_spring", "soil",
-                "slab_at_grade", "double_lateral_bearing")
+                "slab_at_grade", "double_lateral_bearing", "concrete_strength", "reinforcement")
 
 
 def read_nominal(value: Any, where: str) -> tuple[float, float]:
@@ -173,8 +174,16 @@ def read_post(table: Table) -> PostSpec:
         for key, dim in OVERRIDE_KEYS.items()})
     height = table.quantity("height", "length", positive=True, minimum=limits.POST_HEIGHT[0],
                             maximum=limits.POST_HEIGHT[1])
+    from spanstay.models.catalogs.nds import CONDITION_TREATMENT
+    if kind != "round":
+        table.forbid(("conditioning",), "to a sawn or laminated post (it is the NDS Cct of "
+                     "round poles)")
+    else:
+        table.forbid(("incised",), "to a round pole (its treatment factor is conditioning)")
     common = dict(kind=kind, height=height,
-                  species=None, grade=None, overrides=overrides)
+                  species=None, grade=None, overrides=overrides,
+                  incised=table.flag("incised", False),
+                  conditioning=table.text("conditioning", None, tuple(CONDITION_TREATMENT)))
     if kind == "sawn":
         if table.one_of(("nominal", "width"), required=True) == "nominal":
             table.forbid(("depth",), 'with "nominal" (give width and depth instead)')
@@ -212,7 +221,8 @@ def read_footing(table: Table) -> FootingSpec:
     kind = table.text("kind", choices=FOOTING_KINDS)
     if kind == "fixed":
         table.forbid(("depth", "pier_diameter", "backfill", "soil", "slab_at_grade",
-                      "double_lateral_bearing"), "to a fixed footing")
+                      "double_lateral_bearing", "concrete_strength", "reinforcement"),
+                     "to a fixed footing")
         return FootingSpec(kind=kind, depth=0.0, pier_diameter=None, backfill=None,
                            base_spring=table.quantity("base_spring", "rotational stiffness",
                                                       None, positive=True),
@@ -220,7 +230,8 @@ def read_footing(table: Table) -> FootingSpec:
     table.forbid(("base_spring",), f"to an {kind} footing (the soil is modelled)"
                  if kind == "embedded" else "to a pier footing (the soil is modelled)")
     if kind == "embedded":
-        table.forbid(("pier_diameter",), "to an embedded footing (use kind = \"pier\")")
+        table.forbid(("pier_diameter", "concrete_strength", "reinforcement"),
+                     "to an embedded footing (use kind = \"pier\")")
         pier, backfill = None, table.text("backfill", "native", BACKFILLS)
     else:
         table.forbid(("backfill",), "to a pier footing (the pier is concrete)")
@@ -228,7 +239,16 @@ def read_footing(table: Table) -> FootingSpec:
                               maximum=limits.PIER_DIAMETER_MAX)
         backfill = "concrete"
     soil = read_layers(table, "soil") if table.has("soil") else None
-    return FootingSpec(kind=kind, depth=table.quantity("depth", "length", positive=True,
+    concrete = {}
+    if kind == "pier":
+        from spanstay.models.scenario.pier_entry import (REINFORCEMENT_KEYS,
+                                                         read_concrete_strength,
+                                                         read_reinforcement)
+        concrete = dict(concrete_strength=read_concrete_strength(table),
+                        reinforcement=read_reinforcement(
+                            table.table("reinforcement", REINFORCEMENT_KEYS), pier))
+    return FootingSpec(**concrete,
+                       kind=kind, depth=table.quantity("depth", "length", positive=True,
                                                        maximum=limits.FOOTING_DEPTH_MAX),
                        pier_diameter=pier, backfill=backfill, base_spring=None, soil=soil,
                        slab_at_grade=table.flag("slab_at_grade", False),

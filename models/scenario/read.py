@@ -30,12 +30,13 @@ from spanstay.models.scenario.spec import (DEFAULT_AIR_DENSITY, DEFAULT_DRAG_ARE
                          AnchorSpec, GroundSpec, LineSpec, ProjectSpec, RiderSpec, Scenario,
                          Settings)
 from spanstay.models.common.units import parse_quantity
+from spanstay.models.scenario.safety_settings import GROUND_SAFETY_KEYS, ground_safety
 from spanstay.models.scenario import limits
 
 TOP_KEYS = ("project", "settings", "line", "rider", "ground", "anchor", "ride")
 PROJECT_KEYS = ("name", "notes")
 SETTINGS_KEYS = ("factor_of_safety", "dynamic_factor", "install_temperature",
-                 "use_temperatures", "stations", "units")
+                 "use_temperatures", "stations", "units", *GROUND_SAFETY_KEYS)
 LINE_KEYS = ("name", "from", "to", "from_height", "to_height", "rope", "sag", "tension",
              "unstressed_length", "termination_efficiency", "segments")
 RIDER_KEYS = ("line", "lightest", "heaviest", "hang_distance", "dynamic_factor",
@@ -153,7 +154,8 @@ def _read_settings(table: Table | None) -> Settings:
         use_temperatures_default=not use,
         stations=table.integer("stations", DEFAULT_STATIONS, minimum=2,
                                maximum=limits.STATIONS_MAX),
-        units=table.text("units", "us", ("us", "si")))
+        units=table.text("units", "us", ("us", "si")),
+        **ground_safety(table))
 
 
 def _read_line(index: int, data: Any, anchors: dict[str, AnchorSpec]) -> LineSpec:

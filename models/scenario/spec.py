@@ -92,6 +92,8 @@ class PostSpec:
     stack_angle_deg: float | None = None
     fastener: FastenerSpec | None = None
     overrides: MaterialOverrides = field(default_factory=MaterialOverrides)
+    incised: bool = False            # preservative-treated incised sawn lumber (NDS Ci)
+    conditioning: str | None = None  # round pole conditioning before treatment (NDS Cct)
 
     @property
     def outline(self) -> tuple[float, float]:
@@ -131,6 +133,8 @@ class SoilLayerSpec:
     modulus_gradient: float | None = None     # N/m^3
     ibc_class: str | None = None              # key of models.catalogs.ibc_embedment
     preset: str | None = None                 # models.catalogs.soil preset the values came from
+    loading: str = "cyclic"                   # "static" | "cyclic" p-y curves (DEFAULT_SOIL_LOADING)
+    matlock_J: float | None = None            # Matlock's J (clay); None: 0.5
 
 
 @dataclass(frozen=True)
@@ -160,6 +164,19 @@ class FootingSpec:
     soil: tuple[SoilLayerSpec, ...] | None  # overrides [ground] soil for this footing
     slab_at_grade: bool              # constrained at grade (IBC 1807.3.2.2)
     double_lateral_bearing: bool     # IBC 1806.3.4 isolated-pole doubling
+    concrete_strength: float = 20.68e6  # Pa, f'c of a pier (3000 psi unless given)
+    reinforcement: "PierReinforcement | None" = None  # None: plain concrete pier
+
+
+@dataclass(frozen=True)
+class PierReinforcement:
+    """Longitudinal bars of a round pier, equally spaced on one circle."""
+
+    bars: int                        # number of bars
+    bar_diameter: float              # m
+    bar_area: float                  # m^2 per bar
+    cover: float                     # m, clear cover to the bars (ties left out)
+    yield_strength: float            # Pa
 
 
 @dataclass(frozen=True)
@@ -196,6 +213,8 @@ class BraceSpec:
     grade: str | None = None                  # rail (default: the post's)
     block_width: float | None = None          # m, bearing block at the foot
     block_length: float | None = None         # m
+    block_depth: float = 0.0                  # m, block face embedded below grade (passive)
+    block_friction: float | None = None       # base friction coefficient; None: IBC Table 1806.2
     # h-brace
     second_post: PostSpec | None = None
     second_footing: FootingSpec | None = None  # None: same as the anchor's footing
@@ -283,6 +302,11 @@ class Settings:
     units: str                       # "us" | "si" display preference
     #: True when use_temperatures was not given and the default range is used
     use_temperatures_default: bool = False
+    soil_factor_of_safety: float = 2.5     # on a footing's ultimate lateral load (see defaults)
+    uplift_factor_of_safety: float = 2.0   # on a footing's uplift resistance
+    sliding_factor_of_safety: float = 1.5  # on a block's sliding resistance
+    tree_factor_of_safety: float = 3.0     # on a tree stem's green strength
+    concrete_load_factor: float = 1.6      # on a pier's actions for ACI strength design
 
 
 @dataclass(frozen=True)
@@ -353,3 +377,25 @@ DEFAULT_END_OFFSET = 1.0
 #: Temperature range of use when none is given: installation +/- 25 K (our
 #: judgement: a season's swing about a mild installation day).
 DEFAULT_TEMPERATURE_SWING = 25.0
+#: p-y curves of every soil layer unless the layer says ``loading = "static"``: cyclic
+#: (API RP 2A / 2GEO sand A = 0.9; Matlock 1970 cyclic clay). A rider's pull is applied
+#: and released thousands of times over a line's life, which is the repeated loading the
+#: cyclic curves were fitted to; the static curves would overstate the soil's limit
+#: (by 1.5 to 3 times near grade in sand). Our judgement, on the safe side.
+DEFAULT_SOIL_LOADING = "cyclic"
+#: On a footing's ultimate lateral load (pushover): our judgement, in the 2 to 3 range
+#: usual for the geotechnical capacity of laterally loaded piles and poles.
+DEFAULT_SOIL_FACTOR_OF_SAFETY = 2.5
+#: On a footing's uplift resistance (own weight plus side friction): our judgement
+#: (2 is usual for pile uplift with side friction from soil parameters, common practice).
+DEFAULT_UPLIFT_FACTOR_OF_SAFETY = 2.0
+#: On a block's sliding resistance (friction plus passive pressure): common practice for
+#: sliding of foundations and retaining walls (IBC 2021 §1807.2.3 asks 1.5 for walls).
+DEFAULT_SLIDING_FACTOR_OF_SAFETY = 1.5
+#: On a tree stem's green compression strength parallel to grain (a mean clear-wood
+#: value): our judgement, for the unknown decay and defects of a living stem.
+DEFAULT_TREE_FACTOR_OF_SAFETY = 3.0
+#: On a concrete pier's moment and shear for ACI 318 strength design: the live-load
+#: factor of the ASCE 7 strength combinations (1.2 D + 1.6 L), the line's pull taken as
+#: live load.
+DEFAULT_CONCRETE_LOAD_FACTOR = 1.6

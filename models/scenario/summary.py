@@ -115,7 +115,8 @@ def summary_text(scenario: Scenario, units: str) -> str:
                    f"{show(ride.arrival_speed_limit, 'speed', units)} "
                    f"({ride.source('arrival_speed_limit')})")
     ground = scenario.ground
-    soil = ", ".join(layer.kind for layer in ground.soil) or "none described"
+    soil = ", ".join(f"{layer.kind} ({layer.loading} p-y)" for layer in ground.soil) \
+        or "none described"
     depth = (f" to {show(ground.soil[-1].bottom, 'length', units)}" if ground.soil else "")
     out.append(f"ground: {len(ground.profile)} profile points; soil: {soil}{depth}")
     temps = ", ".join(show(t, "temperature", units) for t in s.use_temperatures)
@@ -123,5 +124,9 @@ def summary_text(scenario: Scenario, units: str) -> str:
                f"{show(s.install_temperature, 'temperature', units)}, used at {temps}"
                + (" (default: installation +/- 25 K, our judgement)"
                   if s.use_temperatures_default else ""))
+    out.append(f"ground factors of safety: soil lateral {s.soil_factor_of_safety:g}, uplift "
+               f"{s.uplift_factor_of_safety:g}, sliding {s.sliding_factor_of_safety:g}, tree "
+               f"stem {s.tree_factor_of_safety:g}; concrete load factor "
+               f"{s.concrete_load_factor:g}")
     out.append(f"caution: {CAUTIONS}")
     return "\n".join(out)

@@ -65,7 +65,14 @@ def test_layout_parts_do_their_job(installed):
         assert pole.groups["guy"]
     elif name == "braced":
         kicker = system.anchors["launch"].brace
-        assert member_axial_force(state, kicker.strut).max() < 0  # strut pushes
+        axial = member_axial_force(state, kicker.strut)
+        assert axial.max() < 0  # strut pushes
+        # a weightless strut pinned at both ends is a two-force member: one axial force
+        # along it, and the foot block takes that force's vertical part (statics)
+        np.testing.assert_allclose(axial, axial[0], rtol=1e-9)
+        rise = abs(float(kicker.strut.axis[2]))
+        up = float(state.reactions[kicker.block_node, 2])
+        assert up == pytest.approx(-axial[0] * rise, rel=5e-3)
     elif name == "h-brace":
         hb = system.anchors["launch"].brace
         assert hb.diagonal_from == "main"
@@ -74,8 +81,18 @@ def test_layout_parts_do_their_job(installed):
         assert state.group(hb.diagonal).tension[0] == pytest.approx(pretension, rel=2e-3)
         assert any(g.startswith("launch.brace-post") for g in system.anchors["launch"].groups["post"])
     else:
-        rep = check_anchor(system.model, system.anchors["oak"], state)
+        oak = system.anchors["oak"]
+        rep = check_anchor(system.model, oak, state)
         assert rep.cautions and any(c.part == "root plate" for c in rep.checks)
+        # the root plate holds the moment of the line's pull about the stem at grade
+        # (statics of the stem; its own weight acts along it)
+        pull = line_pull(system, state, "oak")
+        bl = next(iter(system.lines.values()))
+        node = bl.nodes[0] if bl.spec.start == "oak" else bl.nodes[-1]
+        x = system.model.coords + state.translation
+        moment = np.cross(x[node] - x[oak.grade_node], pull)
+        root = [c for c in rep.checks if c.part == "root plate"][0]
+        assert root.demand == pytest.approx(float(np.hypot(moment[0], moment[1])), rel=1e-2)
 
 
 @pytest.mark.parametrize("name", ["guyed-post", "h-brace"])
@@ -97,3 +114,16 @@ def test_examples_read_and_build(name):
         assert kinds == {"pole": (2, None), "catch": (1, None)}
     else:
         assert kinds == {"launch": (0, "h-brace"), "landing": (0, "kicker")}
+
+
+@pytest.mark.xfail(strict=True, reason="found by issue 12: the installed state alternates "
+                   "three rounds of guy and line matching and stops with the guys about 2.9 % "
+                   "over their stated 1 kN (1028.6 N and 1029.3 N) once the line meets its "
+                   "1800 N")
+def test_guyed_layout_guys_carry_their_stated_pretension():
+    # the pretension is stated on the finished structure (the installed state's contract):
+    # to the 0.2 % the H-brace wire meets
+    system, state, _ = install(layout("guyed"))
+    for name in ("top-pole", "catch-post"):
+        for g in system.anchors[name].guys:
+            assert state.group(g.cable).tension[0] == pytest.approx(1000.0, rel=2e-3)

@@ -106,6 +106,14 @@ def test_the_arrest_is_checked_against_breaking_strength(block):
     heavy = next(s for s in bumper.stops.arrest if s.rider == "heaviest")
     assert arrest_stroke.demand == pytest.approx(heavy.speed * np.sqrt(heavy.mass / 60e3))
     assert checks["arrest.anchor.meadow-pole.footing.rotation"].capacity == pytest.approx(0.1)
+    # the soil's ultimate lateral load with no factor of safety (the design pass has 2.5)
+    lateral = checks.get("arrest.anchor.meadow-pole.footing.lateral_capacity")
+    if lateral is not None:
+        assert lateral.description.endswith("/ 1")
+    from spanstay.models.checks.arrest import SAFETY_FACTORS, ultimate_system
+    settings = ultimate_system(bumper.design_system).scenario.settings
+    assert all(getattr(settings, k) == 1.0 for k in SAFETY_FACTORS if hasattr(settings, k))
+    assert bumper.design_system.scenario.settings.factor_of_safety == 5.0  # left as it was
 
 
 def test_no_brake_means_walking_pace_and_the_arrest_is_not_checked(no_ride_table):

@@ -46,3 +46,28 @@ def test_root_plate_rotation_and_checks():
     assert root.demand == pytest.approx(P * h, rel=1e-3) and root.capacity == 1e5
     assert any("arborist" in c for c in rep.cautions)
     assert any("girdle" in c for c in rep.cautions)
+
+
+def test_stem_compression_against_green_fc_with_a_factor():
+    # Statics: at grade M = P h and N = W (a downward load); the compression face carries
+    # M / (pi d^3 / 32) + N / (pi d^2 / 4). White oak, green compression parallel to grain
+    # 3,560 psi (Wood Handbook, quoted) over the tree factor of safety 3 (our judgement).
+    from types import SimpleNamespace
+
+    P, W, h, d = 20e3, 5e3, 4.0, 0.6
+    m = Model()
+    built = add_anchor(m, tree(5e7), GROUND, [h], np.array([1.0, 0, 0]))
+    m.add_load(built.node_at(h), [P, 0, -W])
+    st = solve(m)
+    settings = SimpleNamespace(tree_factor_of_safety=3.0)
+    rep = check_anchor(m, built, st, settings=settings)
+    (stem,) = [c for c in rep.checks if c.part == "stem at grade"]
+    expected = P * h / (np.pi * d**3 / 32) + W / (np.pi * d**2 / 4)
+    assert stem.demand == pytest.approx(expected, rel=2e-3)
+    assert stem.capacity == pytest.approx(3560 * 6894.757 / 3.0, rel=2e-3)
+    # a pull three times larger fails: the check can fail
+    m.add_load(built.node_at(h), [2 * P, 0, 0])
+    rep = check_anchor(m, built, solve(m), settings=settings)
+    (stem,) = [c for c in rep.checks if c.part == "stem at grade"]
+    assert stem.demand > 2.5 * expected
+    assert not stem.passes

@@ -24,16 +24,18 @@ LBF = 4.4482216152605  # N per lbf (NIST SP 811)
 def _example(heaviest: str, pier_depth: str | None = None) -> dict:
     data = tomllib.loads(EXAMPLE.read_text("utf-8"))
     data["rider"]["heaviest"] = heaviest
-    if pier_depth is not None:  # shallower piers: the footings give way sooner
+    if pier_depth is not None:  # shallower, narrower piers: the footings give way sooner
         for anchor in data["anchor"]:
             anchor["footing"]["depth"] = pier_depth
+            anchor["footing"]["pier_diameter"] = "24 in"
     return data
 
 
 @pytest.fixture(scope="module")
 def design_gives_way():
-    """2,200 lbf x 1.5: the rides hold, the design pass finds no equilibrium early on."""
-    return spanstay.analyse(_example("2200 lbf"), stations=4, slack_budget=False)
+    """2,200 lbf x 1.5 on 6 ft piers: the rides hold, the design pass finds no equilibrium
+    early on."""
+    return spanstay.analyse(_example("2200 lbf", "6 ft"), stations=4, slack_budget=False)
 
 
 @pytest.fixture(scope="module")
@@ -98,7 +100,7 @@ def _write_toml(path: Path, data: dict) -> None:
 
 def test_cli_exit_status_is_4_when_incomplete_and_the_finding_comes_first(tmp_path):
     scenario = tmp_path / "heavy.toml"
-    _write_toml(scenario, _example("2200 lbf"))
+    _write_toml(scenario, _example("2200 lbf", "6 ft"))
     run = CliRunner().invoke(main, ["run", str(scenario), "--stations", "3",
                                     "--out", str(tmp_path / "out")])
     assert run.exit_code == EXIT_CODES["incomplete"] == 4, run.output

@@ -84,3 +84,53 @@ def test_built_up_column_stability_by_hand():
     # each ply alone, strength only: (fc / Fc*)^2 = (300 / 1144)^2 = 0.068769
     ply = [c for c in checks if c.part == "ply 2" and c.check.startswith("strength")][0]
     assert ply.demand == pytest.approx(0.068769, rel=2e-3)
+
+
+def test_built_up_column_default_length_is_ke_2_1_times_the_post():
+    # The same three hem-fir No. 2 2x6 plies as above, 1.2 m tall, fixed at the base and
+    # free at the top: le = Ke L with Ke = 2.1 (NDS Appendix G, from memory) = 2.52 m
+    # = 99.213 in. Across the plies (4.5 in, Kf 0.6): le/d = 22.047, FcE = 715.33 psi,
+    # a = 0.62528, CP = 0.6 [1.01580 - sqrt(1.01580^2 - 0.78160)] = 0.6 x 0.51555
+    # = 0.30933; along (5.5 in): le/d = 18.039, CP = 0.66695 (larger). Fc' = 353.87 psi.
+    # P = 150 psi x 24.75 in^2: NDS 3.9.2 with no bending = (150 / 353.87)^2 = 0.17967.
+    L = 1.2
+    d = laminated_design("2x6", 3, "hem-fir", "No. 2", nail("16d"), 0.15, L, rows=2)
+    m = Model(gravity=(0.0, 0.0, 0.0))
+    post = add_laminated_post(m, (0, 0, 0), d, L, heights=[L], weight=False)
+    m.fix(post.base_node, "all")
+    m.add_load(post.node_at(L), [0, 0, -150 * PSI * 24.75 * INCH**2, 0, 0, 0])
+    res = laminated_results(post, solve(m))
+    stab = [c for c in check_laminated(post, res) if c.part == "post"][0]
+    cp = [f for f in stab.factors if f["symbol"] == "CP"][0]
+    assert cp["value"] == pytest.approx(0.30933, rel=1e-3)
+    assert stab.demand == pytest.approx(0.17967, rel=2e-3)
+
+
+def test_ply_shear_is_three_halves_v_over_a():
+    # side by side, tip pull 1000 N: each ply carries V = 500 N (beam theory, equal plies);
+    # NDS 3.4.2: fv = 1.5 V / (t w) = 1.5 x 500 / (0.0381 x 0.18415) = 106.90 kPa;
+    # Fv' = Fv CD CM = 180 psi x 1.0 x 0.97 (wet, NDS Supplement Table 4A, from memory)
+    post, res = _side_by_side_post(1000.0)
+    shear = [c for c in check_laminated(post, res) if c.part == "ply 1" and c.check == "shear"][0]
+    assert shear.demand == pytest.approx(1.5 * 500 / (0.0381 * 0.18415), rel=1e-2)
+    assert shear.capacity == pytest.approx(180 * 0.97 * PSI, rel=1e-9)
+
+
+def test_built_up_column_buckling_along_the_plies_governs_for_narrow_plies():
+    # Four hem-fir No. 2 2x4 plies nailed across (stack 6 in deep, plies 3.5 in wide),
+    # 1.2 m, Ke 2.1: le = 99.213 in. Fc* = 1300 x CF 1.15 x CM 0.8 = 1196 psi, Emin' =
+    # 423,000 psi (NDS Supplement Table 4A, from memory). Along the plies (3.5 in, no Kf):
+    # le/d = 28.347, FcE = 432.73 psi, a = 0.36181, CP = 0.85113 - 0.52169 = 0.32944;
+    # across (6 in, Kf 0.6): le/d = 16.535, CP = 0.6 x 0.71176 = 0.42706 (larger).
+    # Fc' = 394.01 psi; P = 100 psi x 21 in^2: (100 / 394.01)^2 = 0.064415 (NDS 3.9.2).
+    L = 1.2
+    d = laminated_design("2x4", 4, "hem-fir", "No. 2", nail("16d"), 0.15, L, rows=2)
+    m = Model(gravity=(0.0, 0.0, 0.0))
+    post = add_laminated_post(m, (0, 0, 0), d, L, heights=[L], weight=False)
+    m.fix(post.base_node, "all")
+    m.add_load(post.node_at(L), [0, 0, -100 * PSI * 21.0 * INCH**2, 0, 0, 0])
+    res = laminated_results(post, solve(m))
+    stab = [c for c in check_laminated(post, res) if c.part == "post"][0]
+    cp = [f for f in stab.factors if f["symbol"] == "CP"][0]
+    assert cp["value"] == pytest.approx(0.32944, rel=1e-3)
+    assert stab.demand == pytest.approx(0.064415, rel=2e-3)
