@@ -116,10 +116,6 @@ def test_examples_read_and_build(name):
         assert kinds == {"launch": (0, "h-brace"), "landing": (0, "kicker")}
 
 
-@pytest.mark.xfail(strict=True, reason="found by issue 12: the installed state alternates "
-                   "three rounds of guy and line matching and stops with the guys about 2.9 % "
-                   "over their stated 1 kN (1028.6 N and 1029.3 N) once the line meets its "
-                   "1800 N")
 def test_guyed_layout_guys_carry_their_stated_pretension():
     # the pretension is stated on the finished structure (the installed state's contract):
     # to the 0.2 % the H-brace wire meets
