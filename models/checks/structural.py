@@ -202,11 +202,11 @@ def unchecked_parts(system: System, states=()) -> list[NotChecked]:
                 out.append(NotChecked(name, "IBC 2021 embedment depth (Eq. 18-1/18-2)",
                                       "a soil layer the footing passes through has no ibc_class "
                                       "(give the Table 1806.2 class of every such layer)"))
-    out.append(NotChecked("lines", "sag, clearance and the ride with a softer, bedded-in rope",
-                          "every pass uses the rope's one effective EA (catalog, from memory); "
-                          "a softer rope, or one lengthened by constructional stretch as it "
-                          "beds in, sags more: run again with a lower EA (rope = { catalog = "
-                          "..., EA = ... }) and re-tension after bedding in"))
+    out.append(NotChecked("lines", "sag, clearance and the ride with a softer rope (the "
+                          "stiffness bracket)", "every pass uses the rope's one effective EA "
+                          "(catalog, from memory; its constructional stretch is the bedded-in "
+                          "case); a softer rope sags more: run again with a lower EA (rope = "
+                          "{ catalog = ..., EA = ... })"))
     out.append(NotChecked("posts", "torsion", "spanstay does not check torsion in posts"))
     out.append(NotChecked("hardware", "bearing of hardware (eye bolts, plates) on the wood and "
                           "the hardware's own rating", "use the maker's ratings; not modelled"))
