@@ -1,7 +1,8 @@
 """The ride checks from ride results worked by energy: a frictionless trolley from rest
 reaches speed sqrt(2 g dz) (Galileo), and stops where the profile climbs back to its
 starting height; the feet clear a flat ground by the profile's low point less the hang.
-The limits are the defaults (0.15 m of clearance, 5 m/s arrival: our judgements)."""
+The limits are [ride] settings: the default 0.15 m of clearance and an arrival limit of
+5 m/s (as for a stop block; our judgements)."""
 from __future__ import annotations
 
 from types import SimpleNamespace
@@ -12,6 +13,7 @@ import pytest
 from spanstay.models.analysis.clearance import feet_clearance
 from spanstay.models.analysis.ride import ride_speed
 from spanstay.models.checks.ride import ride_checks
+from spanstay.models.scenario.spec import RideLimits
 
 G0 = 9.80665
 X = np.linspace(0.0, 60.0, 121)
@@ -23,7 +25,8 @@ def result(z_light, z_heavy, hang, ground_z=0.0):
     worst = min((feet_clearance(X, z, hang, gd, gz) for z in (z_light, z_heavy)),
                 key=lambda c: c.minimum)
     done = SimpleNamespace(complete=True, stations=[0, 1, 2], weight=1000.0)
-    return SimpleNamespace(scenario=SimpleNamespace(rider=SimpleNamespace(line="main")),
+    return SimpleNamespace(scenario=SimpleNamespace(rider=SimpleNamespace(line="main"),
+                                                    ride=RideLimits(arrival_speed_limit=5.0)),
                            rides={"lightest": light, "heaviest": heavy},
                            passes={"ride_light": done, "ride_heavy": done},
                            clearance=worst)
