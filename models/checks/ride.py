@@ -90,8 +90,9 @@ def ride_checks(result, min_clearance: float | None = None,
             description="rider's feet clear the ground", demand=min_clearance,
             capacity=c.minimum, kind="length",
             utilization=min_clearance / c.minimum if c.minimum > 0 else math.inf,
-            governing={"pass": result.clearance_pass or "ride_heavy",
-                       "rider_weight": result.passes[result.clearance_pass or "ride_heavy"].weight,
+            governing={"pass": getattr(result, "clearance_pass", "") or "ride_heavy",
+                       "rider_weight": result.passes[getattr(result, "clearance_pass", "")
+                                                     or "ride_heavy"].weight,
                        "station": None, "along": c.minimum_distance},
             source=clear_source + " (heaviest rider as installed, on the hottest day, after "
                                   "bedding-in and bouncing (design pass); longest hang)",
