@@ -66,8 +66,12 @@ def test_load_cases_carry_the_scenario_values(example):
     install = float(raw["settings"]["install_temperature"].split()[0])
     factor = raw["settings"]["dynamic_factor"]
     cases = {c.name: c for c in load_cases(example, stations=7)}
-    # the example's [ride] says single-rider: no two-rider case, the rescue stays
-    assert set(cases) == {"ride_light", "ride_heavy", "hot", "bedded", "design", "rescue"}
+    # the example's [ride] decides the two-rider and rescue cases (both on by default)
+    ride = raw.get("ride", {})
+    expected = {"ride_light", "ride_heavy", "hot", "bedded", "design"}
+    expected |= {"two_riders"} if not ride.get("single_rider", False) else set()
+    expected |= {"rescue"} if ride.get("rescue_on_line", True) else set()
+    assert set(cases) == expected
     assert cases["ride_light"].rider_load == pytest.approx(lightest, rel=1e-12)
     assert cases["ride_heavy"].rider_load == pytest.approx(heaviest, rel=1e-12)
     assert cases["ride_heavy"].temperature == pytest.approx(_f_to_k(install), abs=1e-9)
