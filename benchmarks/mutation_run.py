@@ -82,11 +82,12 @@ LATCAP = "models/checks/lateral_capacity.py"
 
 MUTANTS: list[Mutant] = [
     # --- the run's composition -----------------------------------------------------
-    M(LC, "t_cold, design_slip, count, keep_states=True", "t_inst, design_slip, count, keep_states=True",
+    M(LC, "t_cold, design_slip, count, keep_states=True))", "t_inst, design_slip, count, keep_states=True))",
       "design pass at the installation temperature, not the coldest"),
     M(LC, "rider.heaviest, rider.dynamic_factor,", "rider.heaviest, 1.0,",
       "design pass without the dynamic factor"),
-    M(LC, '"ultimate" if needs_ultimate_slip(scenario) else "service"', '"service"',
+    M(LC, 'design_slip = "ultimate" if needs_ultimate_slip(scenario) else "service"',
+      'design_slip = "service"',
       "design pass with K_ser instead of K_u"),
     M(LC, "rider.lightest, 1.0, t_inst", "rider.heaviest, 1.0, t_inst",
       "light ride pass with the heaviest rider"),

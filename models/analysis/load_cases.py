@@ -11,12 +11,15 @@ from dataclasses import dataclass
 
 from spanstay.models.scenario.spec import Scenario
 
+#: where a stuck or waiting rider is held: half the cable's unstressed length
+MID_SPAN = 0.5
 #: a hot pass is run when the hottest temperature of use is this far above installation (K)
 HOT_MARGIN = 0.05
 
 #: what a case is for: "ride" (speeds, slack budget, the heavy rider's states),
-#: "strength" (structural checks), "clearance" (the feet over the ground when hot)
-PURPOSES = ("ride", "strength", "clearance")
+#: "strength" (structural checks), "clearance" (the feet over the ground when hot),
+#: "arrest" (the emergency arrest, checked against ultimate capacities)
+PURPOSES = ("ride", "strength", "clearance", "arrest")
 #: fastener slip of laminated posts: K_ser for the ride, K_u = 2/3 K_ser for strength
 SLIP_STATES = ("service", "ultimate")
 
@@ -56,6 +59,18 @@ class LoadCase:
         Keep every station's full state (for checks, VTK output and plots).
     extra_loads
         Loads added to the rider at every station.
+    push
+        Horizontal force on the rider along the line toward its end anchor (N):
+        the stop force of a brake or end stop acting on the trolley.
+    at_end
+        One station only, at the ride's stop offset (the stop cases).
+    stretch
+        Constructional stretch of the ridden line's rope, bedded in: a strain
+        added to its unstressed length before the rider (0: as installed).
+    fixed
+        Loads that stay put on the ridden cable while the rider moves:
+        (fraction of the cable's unstressed length, load in N), e.g. a rider
+        stuck at mid-span.
     """
 
     name: str
@@ -68,6 +83,10 @@ class LoadCase:
     stations: int
     keep_states: bool = False
     extra_loads: tuple[PointLoad, ...] = ()
+    push: float = 0.0
+    at_end: bool = False
+    fixed: tuple[tuple[float, float], ...] = ()
+    stretch: float = 0.0
 
     def __post_init__(self) -> None:
         if self.purpose not in PURPOSES:
@@ -105,10 +124,18 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
       installation temperature, fastener slip K_ser (the ride and its speeds);
     - hot: the heaviest rider, static, at the hottest temperature of use (feet
       clearance), when that is above installation;
+    - bedded: the same after the rope's constructional stretch has bedded in
+      and before it is re-tensioned ([ride] bedding_in_stretch; feet clearance);
     - design: the heaviest rider times the dynamic factor at the coldest
       temperature (the tightest line), laminated posts with K_u (EC5 2.2.2);
     - design-<line>: the same on every other line, so the anchors it shares are
-      checked under its pull too.
+      checked under its pull too;
+    - two_riders: a second rider ([ride] second_rider) stopped at mid-span, static,
+      while the heaviest rides the line times the dynamic factor (left out when
+      [ride] says single_rider);
+    - rescue: the heaviest rider stuck at mid-span and a rescuer ([ride] rescuer)
+      travelling the line to them, both times [ride] rescue_factor (left out when
+      [ride] says the rescue is from the ground).
     """
     rider = scenario.rider
     if rider is None:
@@ -125,8 +152,66 @@ def load_cases(scenario: Scenario, stations: int | None = None) -> tuple[LoadCas
     if t_hot > t_inst + HOT_MARGIN:
         cases.append(LoadCase("hot", "clearance", rider.line, rider.heaviest, 1.0, t_hot,
                               "service", count))
+    if scenario.ride.bedding_in_stretch > 0.0:
+        cases.append(LoadCase("bedded", "clearance", rider.line, rider.heaviest, 1.0,
+                              max(t_hot, t_inst), "service", count,
+                              stretch=scenario.ride.bedding_in_stretch))
     for name in [rider.line] + other_lines(scenario):
         label = "design" if name == rider.line else f"design-{name}"
         cases.append(LoadCase(label, "strength", name, rider.heaviest, rider.dynamic_factor,
                               t_cold, design_slip, count, keep_states=True))
+    ride, factor = scenario.ride, rider.dynamic_factor
+    if not ride.single_rider:
+        cases.append(LoadCase("two_riders", "strength", rider.line, rider.heaviest, factor, t_cold,
+                              design_slip, count, keep_states=True,
+                              fixed=((MID_SPAN, ride.second_rider_or(rider)),)))
+    if ride.rescue_on_line:
+        cases.append(LoadCase("rescue", "strength", rider.line, ride.rescuer, ride.rescue_factor,
+                              t_cold, design_slip, count, keep_states=True,
+                              fixed=((MID_SPAN, rider.heaviest * ride.rescue_factor),)))
     return tuple(cases)
+
+
+def stop_cases(scenario: Scenario, stop_force: float | None,
+               arrest_force: float | None) -> tuple[LoadCase, ...]:
+    """The stop and the emergency arrest, each one station at the ride's end.
+
+    - stop: the heaviest rider's static weight and the brake's peak stop force
+      (from :func:`spanstay.models.analysis.brake.stop`, the largest over the
+      riders) toward the end anchor, at the coldest temperature, as a strength
+      case (the usual factors of safety);
+    - arrest: the brake missed, the rider stopped by the end stop, checked
+      against ultimate capacities.
+
+    The force enters the cable at the rider (toward the end) when the device acts
+    on the cable, else it pulls the end anchor toward the start at the line's
+    height (a brake line tied off to it).
+    ``None`` leaves a case out (no brake force, no end stop, or no arrival).
+    """
+    rider = scenario.rider
+    if rider is None:
+        raise ValueError("a scenario without a rider has no load cases")
+    t_cold, _ = temperature_range(scenario)
+    slip = "ultimate" if needs_ultimate_slip(scenario) else "service"
+    cases = []
+    for name, purpose, force, device in (("stop", "strength", stop_force, scenario.ride.brake),
+                                         ("arrest", "arrest", arrest_force,
+                                          scenario.ride.end_stop)):
+        if force is None:
+            continue
+        on_cable = device is None or device.acts_on == "cable"
+        extra = () if on_cable else (end_anchor_pull(scenario, float(force)),)
+        cases.append(LoadCase(name, purpose, rider.line, rider.heaviest, 1.0, t_cold, slip, 1,
+                              keep_states=True, extra_loads=extra,
+                              push=float(force) if on_cable else 0.0, at_end=True))
+    return tuple(cases)
+
+
+def end_anchor_pull(scenario: Scenario, force: float) -> PointLoad:
+    """The stop force on the ridden line's end anchor, toward the start anchor in plan,
+    at the line's end height."""
+    line = scenario.line(scenario.rider.line)
+    start, end = scenario.anchor(line.start), scenario.anchor(line.end)
+    dx, dy = start.x - end.x, start.y - end.y
+    norm = (dx * dx + dy * dy) ** 0.5
+    return PointLoad(end.name, line.end_height, (force * dx / norm, force * dy / norm, 0.0))

@@ -10,7 +10,9 @@ import numpy as np
 
 from spanstay.fem import State
 from spanstay.models.analysis.installed import install
-from spanstay.models.analysis.load_cases import LoadCase, load_cases, needs_ultimate_slip
+from spanstay.models.analysis.arrival import Stops, arrival_stops
+from spanstay.models.analysis.load_cases import (LoadCase, load_cases, needs_ultimate_slip,
+                                                 stop_cases)
 from spanstay.models.analysis.clearance import Clearance, feet_clearance
 from spanstay.models.analysis.ride import RideResult, ride_speed
 from spanstay.models.analysis.parallel import default_workers, run_cases
@@ -40,6 +42,12 @@ class RunResult:
     design_system: System | None = None     # laminated posts with K_u (else the same system)
     design_installed: State | None = None
     cases: tuple[LoadCase, ...] = ()
+    stops: Stops | None = None              # the brake's stop and the emergency arrest
+    clearances: dict[str, Clearance] = field(default_factory=dict)  # per clearance pass
+    clearance_pass: str = ""                # the pass that gives the smallest clearance
+    drops: list = field(default_factory=list)  # analysis.drop.DropFactor: the factor's basis
+    drop_why: str = ""                      # why a drop factor is missing
+    wind_rides: dict = field(default_factory=dict)  # "head"/"tail" -> rider -> WindRide
 
 
 def structures(scenario: Scenario) -> dict[str, Structure]:
@@ -87,6 +95,18 @@ def analyse(scenario: Scenario, stations: int | None = None,
                        coords[rider.line], passes, design_system=strength.system,
                        design_installed=strength.installed, cases=cases)
     _ride(result)
+    from spanstay.models.analysis.drop import drop_factors
+    result.drops, result.drop_why = drop_factors(service, rider.line, coords[rider.line],
+                                                 rider.heaviest, scenario.ride.drop_height)
+    result.wind_rides = _wind_rides(result)
+    tail = {k: r.arrival_speed for k, r in result.wind_rides.get("tail", {}).items()
+            if r.reaches_end}
+    result.stops = arrival_stops(scenario, result.rides, tail)
+    more = stop_cases(scenario, result.stops.stop_force, result.stops.arrest_force)
+    if more:  # one station each, at the ride's end: after the rides that give the speed
+        end = {rider.line: coords[rider.line][-1:]}
+        passes.update(run_cases(built, more, end, min(n_workers, len(more)), progress))
+        result.cases = cases + more
     if slack_budget and passes["ride_heavy"].complete:
         from spanstay.models.analysis.slack_budget import slack_budget as budget
         result.slack = budget(result)
@@ -94,7 +114,8 @@ def analyse(scenario: Scenario, stations: int | None = None,
 
 
 def pass_count(scenario: Scenario) -> int:
-    """How many rider passes a run makes (for a progress bar)."""
+    """How many rider passes a run makes (for a progress bar; the stop and arrest
+    passes, one station each, are not counted)."""
     return len(load_cases(scenario))
 
 
@@ -120,7 +141,7 @@ def _ride(result: RunResult) -> None:
                                        drag_area=rider.drag_area, start_speed=rider.start_speed,
                                        air_density=rider.air_density)
     worst = None
-    for label in ("ride_heavy", "hot"):
+    for label in CLEARANCE_PASSES:
         p = result.passes.get(label)
         if p is None:
             continue
@@ -128,7 +149,41 @@ def _ride(result: RunResult) -> None:
             result.clearance = None
             return
         along, z = _profile(p)
-        c = feet_clearance(along, z, rider.hang_distance, gd, gz)
+        c = feet_clearance(along, z, longest_hang(result.scenario), gd, gz)
+        result.clearances[label] = c
         if worst is None or c.minimum < worst.minimum:
-            worst = c
+            worst, result.clearance_pass = c, label
     result.clearance = worst
+
+
+def _wind_rides(result: RunResult) -> dict:
+    """Each rider's ride in the head wind and the tail wind of [ride] (complete passes)."""
+    from spanstay.models.analysis.ride_wind import ride_in_wind
+
+    rider, limits = result.scenario.rider, result.scenario.ride
+    out: dict = {"head": {}, "tail": {}}
+    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
+        p = result.passes[label]
+        if not p.complete or len(p.stations) < 2:
+            continue
+        along, z = _profile(p)
+        mass = p.weight / STANDARD_GRAVITY
+        for name, wind in (("head", -limits.head_wind), ("tail", limits.tail_wind)):
+            out[name][key] = ride_in_wind(along, z, mass, wind,
+                                          rolling_resistance=rider.rolling_resistance,
+                                          drag_area=rider.drag_area,
+                                          air_density=rider.air_density,
+                                          start_speed=rider.start_speed)
+    return out
+
+
+#: the passes whose feet clearance is checked: the heaviest rider as installed, on the
+#: hottest day, after bedding-in, and bouncing (the design pass: times the dynamic factor)
+CLEARANCE_PASSES = ("ride_heavy", "hot", "bedded", "design")
+
+
+def longest_hang(scenario: Scenario) -> float:
+    """The longest hang distance (cable to feet) of the ride's range, or the rider's."""
+    hang = scenario.ride.hang_distance
+    return scenario.rider.hang_distance if hang is None else max(hang[1],
+                                                                  scenario.rider.hang_distance)

@@ -9,7 +9,7 @@ import numpy as np
 
 from spanstay.fem import State, solve
 from spanstay.fem.errors import FemError
-from spanstay.models.analysis.installed import hang_between_ends
+from spanstay.models.analysis.installed import hang_between_ends, measured_sag
 from spanstay.models.analysis.load_cases import LoadCase
 from spanstay.models.analysis.stations import Pass, run_pass
 from spanstay.models.common.errors import InputError
@@ -84,7 +84,27 @@ def run_case(structure: Structure, case: LoadCase, stations_s: np.ndarray,
     system = copy.deepcopy(structure.system)
     d_t = case.temperature - system.scenario.settings.install_temperature
     start = at_temperature(system, structure.installed, d_t)
+    if case.stretch:
+        start = bedded_in(system, start, case.line, case.stretch)
     _add_extra_loads(system, case)
-    return run_pass(system, start, system.lines[case.line], stations_s, case.rider_load,
-                    case.name, case.temperature, keep_states=case.keep_states,
-                    progress=progress)
+    result = run_pass(system, start, system.lines[case.line], stations_s, case.rider_load,
+                      case.name, case.temperature, keep_states=case.keep_states,
+                      progress=progress, push=case.push, fixed=case.fixed)
+    if case.stretch:
+        result.unloaded_sag = measured_sag(system, start, system.lines[case.line])
+    return result
+
+
+def bedded_in(system: System, state: State, line_name: str, stretch: float) -> State:
+    """Lengthen the unstressed cable of ``line_name`` by the strain ``stretch`` (its
+    constructional stretch once bedded in), re-hang it and return the equilibrium
+    without a rider (``system`` is changed: call it on a copy)."""
+    line = system.lines[line_name]
+    line.L0 *= 1.0 + float(stretch)
+    system.model.group(line.group).L0[:] = line.segment_lengths(None)
+    state = hang_between_ends(system, state, line)
+    try:
+        return solve(system.model, state=state, steps=1)
+    except FemError as exc:
+        raise InputError(f"no equilibrium of the line after bedding-in ({100 * stretch:.2g} % "
+                         f"stretch): {exc}", "ride.bedding_in_stretch") from None

@@ -49,6 +49,7 @@ class Pass:
     failed_at: float | None = None
     failure: str = ""
     failed_groups: tuple[str, ...] = ()   # element groups around the largest imbalance
+    unloaded_sag: float | None = None     # the line's sag before the rider (bedded-in cases)
 
     @property
     def complete(self) -> bool:
@@ -56,7 +57,8 @@ class Pass:
         return self.failed_at is None
 
 
-def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float) -> State:
+def place_rider(system: System, line: BuiltLine, state: State, s: float, weight: float,
+                push: float = 0.0) -> State:
     """Move the rider node to arc coordinate ``s`` and return a warm start.
 
     The predictor keeps the strain of every segment: the rider point goes
@@ -65,6 +67,8 @@ def place_rider(system: System, line: BuiltLine, state: State, s: float, weight:
     and each side is mapped onto its new chord by a similarity (rotation and
     uniform scale), so its segments stretch as their unstressed lengths do. Moving nodes along the old polyline instead would cut across the
     rider's kink and leave segments slack, which Newton handles badly.
+
+    ``push`` is a horizontal force on the rider toward the line's end (a stop).
     """
     model = system.model
     nodes, k = line.nodes, line.k
@@ -90,8 +94,46 @@ def place_rider(system: System, line: BuiltLine, state: State, s: float, weight:
     warm.translation[inner] = new[1:-1] - model.coords[inner]
     model.group(line.group).L0[:] = line.segment_lengths(s)
     line.rider_s = s
-    model.set_load(line.rider_node, [0.0, 0.0, -weight])
+    model.set_load(line.rider_node, list(rider_vector(line, weight, push)))
     return warm
+
+
+def rider_vector(line: BuiltLine, weight: float, push: float = 0.0) -> np.ndarray:
+    """The rider's load: its weight down and ``push`` along the line toward its end."""
+    plan = line.end_xyz[:2] - line.start_xyz[:2]
+    ex, ey = push * plan / np.linalg.norm(plan)
+    return np.array([float(ex), float(ey), -float(weight)])
+
+
+def place_fixed(system: System, line: BuiltLine, fixed: tuple[tuple[float, float], ...],
+                rider: np.ndarray, previous: list[int]) -> list[int]:
+    """Put each fixed load ``(fraction of the unstressed length, weight)`` on the cable
+    at that arc coordinate, shared between the two nodes around it by the lever rule;
+    the loads of ``previous`` nodes are removed first. Returns the nodes loaded (other
+    than the rider's, whose load ``rider`` is kept and added to)."""
+    model = system.model
+    for node in previous:
+        model.set_load(node, [0.0, 0.0, 0.0])
+    if not fixed:
+        return []
+    arc = line.arc_coordinates(line.rider_s)
+    shares: dict[int, float] = {}
+    for fraction, weight in fixed:
+        s2 = float(fraction) * line.L0
+        j = int(np.clip(np.searchsorted(arc, s2) - 1, 0, arc.size - 2))
+        t = (s2 - arc[j]) / (arc[j + 1] - arc[j])
+        for i, share in ((j, 1.0 - t), (j + 1, t)):
+            if 0 < i < arc.size - 1:  # at an attachment the support takes it directly
+                shares[i] = shares.get(i, 0.0) + share * float(weight)
+    loaded = []
+    for i, w in shares.items():
+        node = int(line.nodes[i])
+        if i == line.k:
+            model.set_load(node, list(np.asarray(rider, float) + [0.0, 0.0, -w]))
+        else:
+            model.set_load(node, [0.0, 0.0, -w])
+            loaded.append(node)
+    return loaded
 
 
 def _similar(points: np.ndarray, a0, b0, a1, b1) -> np.ndarray:
@@ -136,16 +178,21 @@ def record(system: System, state: State, line: BuiltLine) -> StationResult:
 
 def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.ndarray,
              weight: float, label: str, temperature: float, keep_states: bool = False,
-             progress: Callable[[], None] | None = None) -> Pass:
-    """Solve the rider at every arc coordinate in ``stations_s`` (in order)."""
+             progress: Callable[[], None] | None = None, push: float = 0.0,
+             fixed: tuple[tuple[float, float], ...] = ()) -> Pass:
+    """Solve the rider at every arc coordinate in ``stations_s`` (in order); ``push``
+    is a horizontal force on the rider toward the line's end (a stop); ``fixed`` are
+    loads that stay put on the cable (:func:`place_fixed`), e.g. a stuck rider."""
     result = Pass(label, weight, temperature)
     state = installed
     line.rider_s = None
     cable = system.model.group(line.group)
     cable.L0[:] = line.segment_lengths(None)  # the installed state's even division
     first = True
+    held: list[int] = []
     for s in stations_s:
-        warm = place_rider(system, line, state, float(s), weight)
+        warm = place_rider(system, line, state, float(s), weight, push)
+        held = place_fixed(system, line, fixed, rider_vector(line, weight, push), held)
         try:
             state = solve(system.model, state=warm, steps=4 if first else 1,
                           options=STATION_OPTIONS)
@@ -166,6 +213,7 @@ def run_pass(system: System, installed: State, line: BuiltLine, stations_s: np.n
         if progress is not None:
             progress()
     system.model.set_load(line.rider_node, [0.0, 0.0, 0.0])
+    place_fixed(system, line, (), np.zeros(3), held)
     cable.L0[:] = line.segment_lengths(None)
     line.rider_s = None
     return result

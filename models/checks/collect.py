@@ -6,7 +6,11 @@ from __future__ import annotations
 import re
 
 from spanstay.models.checks.check import Check
-from spanstay.models.checks.ride import MAX_ARRIVAL_SPEED, MIN_CLEARANCE, ride_checks
+from spanstay.models.checks.arrest import arrest_checks
+from spanstay.models.checks.lift_off import lift_off_checks
+from spanstay.models.checks.ride import case_policy_not_checked, ride_checks
+from spanstay.models.checks.stop import stop_checks
+from spanstay.models.checks.wind import wind_checks
 from spanstay.models.checks.structural import structural_checks, unchecked_parts
 from spanstay.models.checks.verdict import NotChecked, Verdict, incomplete_pass
 
@@ -27,11 +31,14 @@ def run_verdict(result) -> Verdict:
         p = result.passes[case.name]
         if not p.complete:
             verdict.incomplete.append(incomplete_pass(system, case, p))
-            if case.purpose == "strength":
+            if case.purpose in ("strength", "arrest"):
                 verdict.not_checked.append(NotChecked(
                     "structure", f"every structural check under pass '{case.name}'",
                     f"not computed, because pass '{case.name}' stopped early after "
                     f"{len(p.stations)} of {case.stations} stations"))
+            continue
+        if case.purpose == "arrest" and p.states:
+            verdict.checks += arrest_checks(system, p)
             continue
         if case.purpose != "strength" or not p.states:
             continue
@@ -40,9 +47,14 @@ def run_verdict(result) -> Verdict:
             old = worst.get(c.id)
             if old is None or _util(c) > _util(old):
                 worst[c.id] = c
-    ride, missing = ride_checks(result, MIN_CLEARANCE, MAX_ARRIVAL_SPEED)
-    verdict.checks = list(worst.values()) + ride
-    verdict.not_checked += missing + unchecked_parts(system, strength_states)
+    ride, missing = ride_checks(result)
+    stops, stop_missing = stop_checks(result)
+    lift, lift_missing = lift_off_checks(result)
+    wind, wind_missing = wind_checks(result)
+    verdict.checks = list(worst.values()) + verdict.checks + ride + wind + lift + stops
+    verdict.not_checked += (missing + wind_missing + lift_missing + stop_missing
+                            + case_policy_not_checked(result.scenario)
+                            + unchecked_parts(system, strength_states))
     _set_aside_placeholder_checks(result.scenario, verdict)
     return verdict
 

@@ -17,11 +17,14 @@ def _fos(system: System) -> tuple[float, str]:
     return fos, "factor of safety on breaking strength: a design input (settings)"
 
 
-def line_checks(system: System, state: State, bl) -> list[Check]:
-    """Cable tension and both end terminations of one line."""
+def line_checks(system: System, state: State, bl,
+                ultimate: bool = False) -> list[Check]:
+    """Cable tension and both end terminations of one line (``ultimate``: against the
+    breaking strength itself, no factor of safety, for an emergency arrest)."""
     spec = bl.spec
     rope = spec.rope
-    fos, fos_src = _fos(system)
+    fos, fos_src = (1.0, "ultimate: the breaking strength itself, no factor of safety "
+                    "(an emergency arrest)") if ultimate else _fos(system)
     t = np.asarray(state.group(bl.group).tension, float)
     k = int(np.argmax(t))
     name = spec.name

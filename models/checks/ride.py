@@ -8,11 +8,12 @@ import math
 from spanstay.models.checks.check import Check
 from spanstay.models.checks.verdict import NotChecked
 
-#: smallest clearance of the rider's feet over the ground: a judgement of ours
-MIN_CLEARANCE = 0.15
-#: largest arrival speed at the far end: a judgement of ours for a line without a
-#: braking system; set your own with the brake you use
-MAX_ARRIVAL_SPEED = 5.0
+from spanstay.models.scenario.spec import DEFAULT_MIN_FEET_CLEARANCE, WALKING_PACE
+
+#: smallest clearance of the rider's feet over the ground (default of [ride]; our judgement)
+MIN_CLEARANCE = DEFAULT_MIN_FEET_CLEARANCE
+#: largest arrival speed with no brake: walking pace (default of [ride]; our judgement)
+MAX_ARRIVAL_SPEED = WALKING_PACE
 
 
 def _stopped(result, name: str) -> str | None:
@@ -27,10 +28,21 @@ def _stopped(result, name: str) -> str | None:
     return None
 
 
-def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
-                max_arrival_speed: float = MAX_ARRIVAL_SPEED
+def ride_checks(result, min_clearance: float | None = None,
+                max_arrival_speed: float | None = None
                 ) -> tuple[list[Check], list[NotChecked]]:
-    """The ride checks that could be made, and the ride items that could not."""
+    """The ride checks that could be made, and the ride items that could not.
+
+    The limits are the scenario's ``[ride]`` values (with their sources) unless given.
+    """
+    limits = result.scenario.ride
+    speed_source = (f"[ride] arrival_speed_limit: {limits.source('arrival_speed_limit')} "
+                    f"(brake: {limits.brake.kind})")
+    clear_source = f"[ride] min_feet_clearance: {limits.source('min_feet_clearance')}"
+    if max_arrival_speed is None:
+        max_arrival_speed = limits.arrival_speed_limit
+    if min_clearance is None:
+        min_clearance = limits.min_feet_clearance
     out: list[Check] = []
     missing: list[NotChecked] = []
     line = result.scenario.rider.line
@@ -62,15 +74,15 @@ def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
                 governing={"pass": "ride_heavy" if worst is heavy else "ride_light",
                            "rider_weight": None, "station": None,
                            "along": float(worst.distance[-1])},
-                source="a judgement of ours for a line without a brake; set your own with the "
-                       "brake you use"))
+                source=speed_source))
         else:
             missing.append(NotChecked("ride", "the arrival speed",
                                       "no rider reaches the far end (see the arrival check)"))
     else:
         missing.append(NotChecked("ride", "the arrival speed",
                                   why_heavy or why_light or "not computed"))
-    why_hot = _stopped(result, "hot")
+    why_hot = (_stopped(result, "hot") or _stopped(result, "bedded")
+               or _stopped(result, "design"))
     if result.clearance is not None and why_heavy is None and why_hot is None:
         c = result.clearance
         out.append(Check(
@@ -78,12 +90,27 @@ def ride_checks(result, min_clearance: float = MIN_CLEARANCE,
             description="rider's feet clear the ground", demand=min_clearance,
             capacity=c.minimum, kind="length",
             utilization=min_clearance / c.minimum if c.minimum > 0 else math.inf,
-            governing={"pass": "ride_heavy/hot", "rider_weight": result.passes["ride_heavy"].weight,
+            governing={"pass": result.clearance_pass or "ride_heavy",
+                       "rider_weight": result.passes[result.clearance_pass or "ride_heavy"].weight,
                        "station": None, "along": c.minimum_distance},
-            source="a judgement of ours (smallest clearance of the feet, heaviest rider, hottest "
-                   "day)",
+            source=clear_source + " (heaviest rider as installed, on the hottest day, after "
+                                  "bedding-in and bouncing (design pass); longest hang)",
             note=f"smallest clearance {c.minimum:.2f} m"))
     else:
         missing.append(NotChecked("ride", "the feet clearance over the ground",
                                   why_heavy or why_hot or "not computed"))
     return out, missing
+
+
+def case_policy_not_checked(scenario) -> list[NotChecked]:
+    """The load cases the scenario's [ride] settings leave out, each with its reason."""
+    out = []
+    if scenario.ride.single_rider:
+        out.append(NotChecked("line", "two riders on the line at once",
+                              "the scenario says the line is single-rider ([ride] single_rider): "
+                              "keep to one rider at a time"))
+    if not scenario.ride.rescue_on_line:
+        out.append(NotChecked("line", "a rescuer on the line with a stuck rider",
+                              "the scenario says rescue is from the ground ([ride] "
+                              "rescue_on_line = false): plan and equip that rescue"))
+    return out

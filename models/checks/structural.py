@@ -95,18 +95,19 @@ def state_checks(system: System, state: State, governing: dict, duration: str = 
     return out
 
 
-def extra_anchor_checks(system: System, state: State, duration: str = RIDER_DURATION
-                        ) -> list[Check]:
+def extra_anchor_checks(system: System, state: State, duration: str = RIDER_DURATION,
+                        fos: float | None = None) -> list[Check]:
     """Guy, brace and tree checks of every anchor, from :mod:`models.checks.anchors`.
 
     Each ``AnchorCheck`` becomes a :class:`Check` with id
     ``anchor.<name>.<part>.<check>`` (lower case, words joined by "_"); a
     finding (slack guy, pulled-out ground anchor, lifting block) is put in
-    front of the note.
+    front of the note. ``fos`` replaces the scenario's factor of safety on ropes
+    (the emergency arrest checks them against their breaking strength).
     """
     from spanstay.models.checks.anchors import check_anchor, top_soil_class
 
-    fos = float(system.scenario.settings.factor_of_safety)
+    fos = float(system.scenario.settings.factor_of_safety if fos is None else fos)
     soil = top_soil_class(system.scenario.ground)
     out = []
     for anchor in system.anchors.values():

@@ -73,6 +73,7 @@ DIMENSIONS: dict[str, Dimension] = {
     "temperature difference": Dimension("a temperature difference", "K", "40 delta_degF"),
     "per temperature": Dimension("a coefficient per degree", "1/K", "6.5e-6 / delta_degF"),
     "angle": Dimension("an angle", "rad", "30 deg"),
+    "energy": Dimension("an energy (force times distance)", "J", "1500 ft*lbf"),
 }
 
 _OFFSET_NAMES = ("degF", "degC", "degree_Fahrenheit", "degree_Celsius", "fahrenheit",
@@ -309,6 +310,7 @@ DISPLAY: dict[str, tuple[str, tuple[str, str], tuple[str, str]]] = {
     "temperature": ("K", ("degF", "°F"), ("degC", "°C")),
     "temperature difference": ("K", ("delta_degF", "°F"), ("K", "K")),
     "angle": ("rad", ("deg", "°"), ("deg", "°")),
+    "energy": ("J", ("ft*lbf", "ft·lbf"), ("kJ", "kJ")),
 }
 
 UNIT_SYSTEMS = ("us", "si")

@@ -36,6 +36,7 @@ _UNITS: dict[str, dict[str, tuple[float, str]]] = {
     "angle": {"si": (math.pi / 180, "°"), "us": (math.pi / 180, "°")},
     "ratio": {"si": (1.0, ""), "us": (1.0, "")},
     "per kelvin": {"si": (1.0, "1/K"), "us": (1.8, "1/°F")},
+    "energy": {"si": (1e3, "kJ"), "us": (LBF * FOOT, "ft·lbf")},
 }
 
 

@@ -88,8 +88,10 @@ def _quantity(value, kind: str | None, units: str) -> str:
         return "–"
     if not isinstance(value, (int, float)):
         return escape(str(value))
-    if kind in ("force", "stress", "length", "angle", "speed", "moment"):
+    if kind in ("force", "stress", "length", "angle", "speed", "moment", "energy"):
         return escape(show(float(value), kind, units))
+    if kind == "acceleration":
+        return escape(f"{float(value) / 9.80665:.2f} g")
     return escape(number(float(value)))
 
 
@@ -349,6 +351,12 @@ def write_report(out_dir: Path, summary: dict) -> Path:
 
     parts.append("<h2>The ride</h2>")
     parts.append(_ride_table(summary, units))
+    limits = summary.get("ride_limits") or {}
+    if limits.get("text"):
+        parts.append("<h3>Ride limits, brake and the stop</h3><ul>"
+                     + "".join(f"<li>{escape(str(t))}</li>"
+                               for t in limits["text"] + limits.get("stop_text", []))
+                     + "</ul>")
     for key, caption in RUN_FIGURES.items():
         if key in run_plots:
             parts.append(_figure(run_plots[key], caption))

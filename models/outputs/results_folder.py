@@ -126,6 +126,8 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
 
     from spanstay.models.analysis.installed import end_tensions, measured_sag
     from spanstay.models.analysis.anchor_shares import anchor_shares
+    from spanstay.models.outputs.ride_limits_text import loaded_lines, ride_limit_lines, stop_lines
+    from spanstay.models.checks.lift_off import loaded_sag_ratio
 
     try:
         ver = version("spanstay")
@@ -153,6 +155,16 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "verdict": result.verdict.to_dict() if result.verdict is not None else None,
         "load_shares": anchor_shares(result) if result.passes["design"].complete else {},
         "checks": [c.to_dict() for c in result.checks],
+        "ride_limits": {"settings": sc.ride, "sources": dict(sc.ride.sources),
+                        "use_temperatures_default": sc.settings.use_temperatures_default,
+                        "text": ride_limit_lines(sc, units),
+                        "stop_text": stop_lines(getattr(result, "stops", None), units)
+                        + loaded_lines(result, units)},
+        "stops": result.stops.to_dict() if getattr(result, "stops", None) is not None else None,
+        "wind_rides": getattr(result, "wind_rides", {}),
+        "dynamic_basis": {"used": sc.rider.dynamic_factor,
+                          "computed": list(getattr(result, "drops", [])),
+                          "why_not": getattr(result, "drop_why", "")},
         "model": {
             "parts": _parts(system),
             "anchors": {n: {"grade_xyz": [a.spec.x, a.spec.y, a.spec.grade], "top_node": a.top_node,
@@ -168,6 +180,9 @@ def build_summary(result, scenario_file: str, units: str, vtk: dict,
         "soil_profiles": soil_profiles(result),
         "plots": plots,
     }
+    sag_ratio = loaded_sag_ratio(result)
+    if sag_ratio is not None:
+        summary["ride_limits"]["loaded_sag_ratio"] = sag_ratio[0]
     if result.clearance is not None:
         c = result.clearance
         summary["ride"]["clearance"] = {"min": c.minimum, "at": c.minimum_distance,

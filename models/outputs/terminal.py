@@ -8,7 +8,7 @@ from spanstay.models.common.units import show
 
 #: check kinds and the unit kind models.common.units.show formats them with
 _KIND_UNITS = {"force": "force", "stress": "pressure", "length": "length", "speed": "speed",
-               "moment": "moment"}
+               "moment": "moment", "energy": "energy"}
 
 
 def _value(value, kind: str, units: str) -> str:
@@ -16,6 +16,8 @@ def _value(value, kind: str, units: str) -> str:
         return "-"
     if kind == "angle":
         return f"{math.degrees(value):.2f} deg"
+    if kind == "acceleration":
+        return f"{value / 9.80665:.2f} g"
     if kind in _KIND_UNITS:
         try:
             return show(value, _KIND_UNITS[kind], units)
@@ -70,6 +72,10 @@ def summary_lines(result, out_dir, units: str) -> list[str]:
         end = (f"arrives at {show(r.arrival_speed, 'speed', units)}" if r.reaches_end
                else f"STOPS {show(r.stop_distance, 'length', units)} along the line")
         lines.append(f"  ride, {key} rider: top speed {show(r.top_speed, 'speed', units)}, {end}")
+    from spanstay.models.outputs.ride_limits_text import loaded_lines, ride_limit_lines, stop_lines
+
+    lines += [f"  {t}" for t in ride_limit_lines(sc, units) + stop_lines(result.stops, units)
+              + loaded_lines(result, units)]
     if result.clearance is not None:
         c = result.clearance
         lines.append(f"  smallest feet clearance {show(c.minimum, 'length', units)} at "

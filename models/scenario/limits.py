@@ -31,6 +31,7 @@ MAGNITUDE: dict[str, tuple[float, float]] = {
     "temperature difference": (1e-6, 1e3),
     "per temperature": (1e-9, 1e-2),
     "angle": (1e-9, 6.2832),                # one full turn either way
+    "energy": (1e-3, 1e9),
 }
 
 #: post height above grade, m: 1 ft to about 130 ft (a judgement)

@@ -21,17 +21,19 @@ from spanstay.models.scenario.geometry import check_anchor_names, check_scenario
 from spanstay.models.scenario.ground import read_ground
 from spanstay.models.common.errors import did_you_mean
 from spanstay.models.scenario.reader import PLACEHOLDERS, Table
+from spanstay.models.scenario.ride_table import RIDE_KEYS, read_ride
 from spanstay.models.scenario.spec import (DEFAULT_AIR_DENSITY, DEFAULT_DRAG_AREA, DEFAULT_DYNAMIC_FACTOR,
                          DEFAULT_END_OFFSET, DEFAULT_FACTOR_OF_SAFETY,
                          DEFAULT_INSTALL_TEMPERATURE, DEFAULT_ROLLING_RESISTANCE,
-                         DEFAULT_SEGMENTS, DEFAULT_STATIONS, DEFAULT_TERMINATION_EFFICIENCY,
+                         DEFAULT_SEGMENTS, DEFAULT_STATIONS, DEFAULT_TEMPERATURE_SWING,
+                         DEFAULT_TERMINATION_EFFICIENCY,
                          AnchorSpec, GroundSpec, LineSpec, ProjectSpec, RiderSpec, Scenario,
                          Settings)
 from spanstay.models.common.units import parse_quantity
 from spanstay.models.scenario.safety_settings import GROUND_SAFETY_KEYS, ground_safety
 from spanstay.models.scenario import limits
 
-TOP_KEYS = ("project", "settings", "line", "rider", "ground", "anchor")
+TOP_KEYS = ("project", "settings", "line", "rider", "ground", "anchor", "ride")
 PROJECT_KEYS = ("name", "notes")
 SETTINGS_KEYS = ("factor_of_safety", "dynamic_factor", "install_temperature",
                  "use_temperatures", "stations", "units", *GROUND_SAFETY_KEYS)
@@ -106,8 +108,9 @@ def _read(data: dict[str, Any], default_name: str) -> Scenario:
     if not profile_given:
         ground = _straight_profile(ground, rider.line if rider else lines[0].name,
                                    lines, by_name)
+    ride = read_ride(top.table("ride", RIDE_KEYS))
     scenario = Scenario(project=project, settings=settings, lines=lines, rider=rider,
-                        ground=ground, anchors=anchors)
+                        ground=ground, anchors=anchors, ride=ride)
     check_scenario(scenario)
     return scenario
 
@@ -146,7 +149,9 @@ def _read_settings(table: Table | None) -> Settings:
         dynamic_factor=table.number("dynamic_factor", DEFAULT_DYNAMIC_FACTOR, minimum=1.0,
                                     maximum=5.0),
         install_temperature=install,
-        use_temperatures=tuple(use) or (install,),
+        use_temperatures=tuple(use) or (install - DEFAULT_TEMPERATURE_SWING,
+                                         install + DEFAULT_TEMPERATURE_SWING),
+        use_temperatures_default=not use,
         stations=table.integer("stations", DEFAULT_STATIONS, minimum=2,
                                maximum=limits.STATIONS_MAX),
         units=table.text("units", "us", ("us", "si")),

@@ -12,8 +12,15 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 from spanstay.models.catalogs.rope import RopeSpec
+from spanstay.models.scenario.ride_spec import (DEFAULT_MAX_DECELERATION, DEFAULT_MIN_FEET_CLEARANCE,
+                                                DEFAULT_RESCUE_FACTOR, DEFAULT_RESCUER,
+                                                SPRING_ARRIVAL_LIMIT, WALKING_PACE, BrakeSpec,
+                                                RideLimits)
 
-__all__ = ["RopeSpec"]  # the rope a scenario names is a catalog entry
+# the rope a scenario names is a catalog entry; the ride's limits live in ride_spec
+__all__ = ["RopeSpec", "BrakeSpec", "RideLimits", "WALKING_PACE", "SPRING_ARRIVAL_LIMIT",
+           "DEFAULT_MIN_FEET_CLEARANCE", "DEFAULT_MAX_DECELERATION", "DEFAULT_RESCUER",
+           "DEFAULT_RESCUE_FACTOR"]
 
 
 @dataclass(frozen=True)
@@ -293,6 +300,8 @@ class Settings:
     use_temperatures: tuple[float, ...]  # K, temperatures the line is checked at
     stations: int                    # default number of rider stations
     units: str                       # "us" | "si" display preference
+    #: True when use_temperatures was not given and the default range is used
+    use_temperatures_default: bool = False
     soil_factor_of_safety: float = 2.5     # on a footing's ultimate lateral load (see defaults)
     uplift_factor_of_safety: float = 2.0   # on a footing's uplift resistance
     sliding_factor_of_safety: float = 1.5  # on a block's sliding resistance
@@ -320,6 +329,8 @@ class Scenario:
     anchors: tuple[AnchorSpec, ...]
     #: values written as { placeholder = "...", accepted = true|false }: (key path, accepted)
     placeholders: tuple[tuple[str, bool], ...] = ()
+    #: the ride's limits and brake ([ride]); defaults when the table is absent
+    ride: RideLimits = field(default_factory=RideLimits)
 
     def anchor(self, name: str) -> AnchorSpec:
         """The anchor with this name (KeyError if none)."""
@@ -363,6 +374,9 @@ DEFAULT_ROLLING_RESISTANCE = 0.02
 #: Ride starts/stops this far from the terminations, m: a judgement (the
 #: trolley cannot reach the termination hardware).
 DEFAULT_END_OFFSET = 1.0
+#: Temperature range of use when none is given: installation +/- 25 K (our
+#: judgement: a season's swing about a mild installation day).
+DEFAULT_TEMPERATURE_SWING = 25.0
 #: p-y curves of every soil layer unless the layer says ``loading = "static"``: cyclic
 #: (API RP 2A / 2GEO sand A = 0.9; Matlock 1970 cyclic clay). A rider's pull is applied
 #: and released thousands of times over a line's life, which is the repeated loading the

@@ -109,6 +109,11 @@ def summary_text(scenario: Scenario, units: str) -> str:
                    f"{show(r.heaviest, 'force', units)}, dynamic factor {r.dynamic_factor:g}, "
                    f"feet {show(r.hang_distance, 'length', units)} below the cable, "
                    f"{r.stations} stations")
+        ride = scenario.ride
+        out.append(f"ride: brake {ride.brake.kind}, end stop "
+                   f"{ride.end_stop.kind if ride.end_stop else 'none'}, arrival speed limit "
+                   f"{show(ride.arrival_speed_limit, 'speed', units)} "
+                   f"({ride.source('arrival_speed_limit')})")
     ground = scenario.ground
     soil = ", ".join(f"{layer.kind} ({layer.loading} p-y)" for layer in ground.soil) \
         or "none described"
@@ -116,7 +121,9 @@ def summary_text(scenario: Scenario, units: str) -> str:
     out.append(f"ground: {len(ground.profile)} profile points; soil: {soil}{depth}")
     temps = ", ".join(show(t, "temperature", units) for t in s.use_temperatures)
     out.append(f"settings: factor of safety {s.factor_of_safety:g}, installed at "
-               f"{show(s.install_temperature, 'temperature', units)}, used at {temps}")
+               f"{show(s.install_temperature, 'temperature', units)}, used at {temps}"
+               + (" (default: installation +/- 25 K, our judgement)"
+                  if s.use_temperatures_default else ""))
     out.append(f"ground factors of safety: soil lateral {s.soil_factor_of_safety:g}, uplift "
                f"{s.uplift_factor_of_safety:g}, sliding {s.sliding_factor_of_safety:g}, tree "
                f"stem {s.tree_factor_of_safety:g}; concrete load factor "

@@ -66,7 +66,8 @@ def test_load_cases_carry_the_scenario_values(example):
     install = float(raw["settings"]["install_temperature"].split()[0])
     factor = raw["settings"]["dynamic_factor"]
     cases = {c.name: c for c in load_cases(example, stations=7)}
-    assert set(cases) == {"ride_light", "ride_heavy", "hot", "design"}
+    # the example's [ride] says single-rider: no two-rider case, the rescue stays
+    assert set(cases) == {"ride_light", "ride_heavy", "hot", "bedded", "design", "rescue"}
     assert cases["ride_light"].rider_load == pytest.approx(lightest, rel=1e-12)
     assert cases["ride_heavy"].rider_load == pytest.approx(heaviest, rel=1e-12)
     assert cases["ride_heavy"].temperature == pytest.approx(_f_to_k(install), abs=1e-9)

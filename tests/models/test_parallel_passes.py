@@ -20,13 +20,14 @@ def test_parallel_passes_equal_the_serial_run_bit_for_bit():
     side = spanstay.analyse(scenario, stations=3, slack_budget=False, workers=2,
                             progress=lambda name, n: seen.update({name: n}))
     assert list(side.passes) == list(serial.passes)
+    one = {c.name for c in serial.cases if c.at_end}  # the stop and the arrest: one station
     for name, p in serial.passes.items():
         q = side.passes[name]
-        assert len(q.stations) == len(p.stations) == 3
+        assert len(q.stations) == len(p.stations) == (1 if name in one else 3)
         for a, b in zip(p.stations, q.stations):
             assert (a.tension_max, a.sag) == (b.tension_max, b.sag)
             np.testing.assert_array_equal(a.rider, b.rider)
         for sa, sb in zip(p.states, q.states):
             np.testing.assert_array_equal(sa.translation, sb.translation)
     assert [c.to_dict() for c in side.checks] == [c.to_dict() for c in serial.checks]
-    assert dict(seen) == {name: 3 for name in serial.passes}
+    assert dict(seen) == {name: 1 if name in one else 3 for name in serial.passes}

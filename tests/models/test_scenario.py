@@ -77,7 +77,10 @@ def test_defaults_when_left_out():
     s = read_scenario(data)
     assert s.settings.factor_of_safety == 5.0  # common practice
     assert s.lines[0].termination_efficiency == 0.8  # from memory, clipped ends
-    assert s.settings.use_temperatures == (s.settings.install_temperature,)
+    # no range of use given: installation +/- 25 K, flagged for the output (our judgement)
+    t = s.settings.install_temperature
+    assert s.settings.use_temperatures == (t - 25.0, t + 25.0)
+    assert s.settings.use_temperatures_default
 
 
 def test_missing_profile_is_straight_between_anchor_grades():

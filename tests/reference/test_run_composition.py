@@ -82,7 +82,8 @@ def by_name(cases):
 
 def test_each_pass_has_its_temperature_rider_factor_slip_and_line():
     cases = by_name(load_cases(read_scenario(rigid_data(second_line=True))))
-    assert list(cases) == ["ride_light", "ride_heavy", "hot", "design", "design-side"]
+    assert list(cases) == ["ride_light", "ride_heavy", "hot", "bedded", "design", "design-side",
+                           "two_riders", "rescue"]
     t_inst, t_cold, t_hot = (T_INSTALL_C + ZERO_C, T_COLD_C + ZERO_C, T_HOT_C + ZERO_C)
     light, heavy = LIGHT_LBF * LBF, HEAVY_LBF * LBF
     expected = {  # (purpose, line, weight, factor, temperature, slip)
@@ -92,6 +93,11 @@ def test_each_pass_has_its_temperature_rider_factor_slip_and_line():
         # the design pass: coldest temperature (the tightest line), dynamic factor
         "design": ("strength", "main", heavy, FACTOR, t_cold, "service"),
         "design-side": ("strength", "side", heavy, FACTOR, t_cold, "service"),
+        # no [ride] table: bedding-in (0.25 %) on the hottest day, a second rider of the
+        # heaviest weight held at mid-span, a 250 lbf rescuer times 1.25 (our judgements)
+        "bedded": ("clearance", "main", heavy, 1.0, t_hot, "service"),
+        "two_riders": ("strength", "main", heavy, FACTOR, t_cold, "service"),
+        "rescue": ("strength", "main", 250 * LBF, 1.25, t_cold, "service"),
     }
     for name, (purpose, line, weight, factor, temp, slip) in expected.items():
         c = cases[name]
@@ -102,6 +108,9 @@ def test_each_pass_has_its_temperature_rider_factor_slip_and_line():
         assert c.temperature == pytest.approx(temp, abs=1e-9), name
         assert c.stations == 3
     assert cases["ride_heavy"].keep_states and cases["design"].keep_states
+    assert cases["bedded"].stretch == pytest.approx(0.0025)
+    assert cases["two_riders"].fixed == ((0.5, pytest.approx(heavy, rel=1e-12)),)
+    assert cases["rescue"].fixed == ((0.5, pytest.approx(heavy * 1.25, rel=1e-12)),)
 
 
 def test_installation_counts_among_the_temperatures_of_use():
@@ -224,7 +233,14 @@ def test_termination_check_uses_the_lines_efficiency(rigid_run):
 # ------------------------------------------------ part 3: K_ser and K_u in the model
 @pytest.fixture(scope="module")
 def laminated():
-    sc = load_scenario(LAYOUT)
+    # the two-post starter's nailed launch post, here without the guys (the post alone
+    # takes the line, so its plies slip more)
+    import tomllib
+
+    data = tomllib.loads(LAYOUT.read_text(encoding="utf-8"))
+    for anchor in data["anchor"]:
+        anchor.pop("guy", None)
+    sc = read_scenario(data)
     return sc, structures(sc)
 
 

@@ -50,6 +50,7 @@ def test_kicker_block_push_follows_the_strut_axis(deadman):
     brace = data["anchor"][1]["brace"]
     if not deadman:  # the block on the surface
         del brace["block_depth"]
+    data["ride"]["single_rider"] = True  # the design pass governs (no two-rider case)
     r = spanstay.analyse(data, stations=3, slack_budget=False, workers=1)
     from spanstay.models.parts.braces import member_axial_force
 
