@@ -75,14 +75,19 @@ BEAM = "fem/beam.py"
 ROT = "fem/rotation.py"
 SPRING = "fem/spring.py"
 LINK = "fem/link.py"
+CONC = "models/checks/concrete.py"
+VERT = "models/checks/vertical.py"
+SLIDE = "models/checks/sliding.py"
+LATCAP = "models/checks/lateral_capacity.py"
 
 MUTANTS: list[Mutant] = [
     # --- the run's composition -----------------------------------------------------
-    M(LC, "t_cold, design_slip, count, keep_states=True", "t_inst, design_slip, count, keep_states=True",
+    M(LC, "t_cold, design_slip, count, keep_states=True))", "t_inst, design_slip, count, keep_states=True))",
       "design pass at the installation temperature, not the coldest"),
     M(LC, "rider.heaviest, rider.dynamic_factor,", "rider.heaviest, 1.0,",
       "design pass without the dynamic factor"),
-    M(LC, '"ultimate" if needs_ultimate_slip(scenario) else "service"', '"service"',
+    M(LC, 'design_slip = "ultimate" if needs_ultimate_slip(scenario) else "service"',
+      'design_slip = "service"',
       "design pass with K_ser instead of K_u"),
     M(LC, "rider.lightest, 1.0, t_inst", "rider.heaviest, 1.0, t_inst",
       "light ride pass with the heaviest rider"),
@@ -140,7 +145,7 @@ MUTANTS: list[Mutant] = [
     M(POSTS, "FbE = 1.20 * Emin / (le_b * d1 / d2**2)", "FbE = 1.0 * Emin / (le_b * d1 / d2**2)",
       "FbE constant 1.0"),
     M(POSTS, 'edge["Fb_star"] * (cl.value if cl else 1.0)', 'edge["Fb_star"]', "CL dropped"),
-    M(POSTS, "wet=True, flatwise=flatwise)", "wet=False, flatwise=flatwise)",
+    M(POSTS, "wet=True, flatwise=flatwise, **extra)", "wet=False, flatwise=flatwise, **extra)",
       "posts taken as dry service"),
     M(POSTS, "a = (np.where(ft > 0, ft / Ft, 0.0)", "a = (np.where(ft > 0, 0.0 * ft, 0.0)",
       "tension term dropped"),
@@ -215,6 +220,34 @@ MUTANTS: list[Mutant] = [
       "self.passed = bool(self.utilization <= 1.05)", "5 % over capacity passes"),
     M(CHECK, "else (0.0 if self.demand <= 0 else math.inf))", "else 0.0)",
       "zero capacity passes"),
+    # --- checks added with the ground work (issue 13) ----------------------------------
+    M(CONC, "PHI_PLAIN = 0.60", "PHI_PLAIN = 0.65", "plain concrete phi 0.65"),
+    M(CONC, "PHI_SHEAR = 0.75", "PHI_SHEAR = 0.85", "shear phi 0.85"),
+    M(CONC, "PLAIN_CAST_AGAINST_SOIL = 2 * IN", "PLAIN_CAST_AGAINST_SOIL = 0 * IN",
+      "plain pier cast against soil at full size"),
+    M(CONC, "mn = 5.0 * root * sm", "mn = 7.5 * root * sm", "plain flexure 7.5 sqrt(f'c)"),
+    M(CONC, "vn = 4.0 / 3.0 * root", "vn = 2.0 * root", "plain shear 2 sqrt(f'c)"),
+    M(CONC, "0.85 - 0.05 * (f - 4000.0) / 1000.0", "0.85 - 0.025 * (f - 4000.0) / 1000.0",
+      "beta1 slope halved"),
+    M(CONC, "return 0.85 * fc * area, ybar, steel, strain", "return 1.0 * fc * area, ybar, steel, strain",
+      "stress block 1.0 f'c"),
+    M(CONC, "vc = min(8.0 * size", "vc = min(2.0 * size", "reinforced shear 2 lambda_s"),
+    M(VERT, "delta = ph if cast else 2.0 / 3.0 * ph", "delta = ph", "interface friction of cast = driven"),
+    M(VERT, "f = np.where(use_sand, (1.0 - np.sin(ph)) * sv", "f = np.where(use_sand, (1.0 + np.sin(ph)) * sv",
+      "K0 with the wrong sign of sin phi"),
+    M(VERT, "np.where(psi <= 1.0, 0.5 * psi**-0.5, 0.5 * psi**-0.25)",
+      "np.where(psi <= 1.0, 0.5 * psi**-0.25, 0.5 * psi**-0.5)", "API alpha exponents swapped"),
+    M(VERT, "CONCRETE_UNIT_WEIGHT = 23.6e3", "CONCRETE_UNIT_WEIGHT = 20.0e3", "concrete 127 pcf"),
+    M(VERT, "float(state.reactions[placed.toe_node, 2])", "float(-state.reactions[placed.toe_node, 2])",
+      "toe reaction sign"),
+    M(SLIDE, "passive = 0.5 * IBC_LATERAL_BEARING_PSF_PER_FT", "passive = 1.0 * IBC_LATERAL_BEARING_PSF_PER_FT",
+      "passive triangle doubled"),
+    M(SLIDE, "return max(horizontal, 0.0), (base + passive) / factor_of_safety",
+      "return max(horizontal, 0.0), (base + passive)", "sliding without its factor of safety"),
+    M(LATCAP, "ultimate / factor_of_safety, \"force\"", "ultimate, \"force\"",
+      "lateral capacity without its factor of safety"),
+    M(LATCAP, "e = max(moment / shear, 0.0) if shear > 0 else 0.0", "e = 0.0",
+      "pushover load at grade"),
     # --- NDS and fastener catalogs -----------------------------------------------------------
     M(NDS, "return 0.822 * Emin_adj / le_over_d**2", "return 0.85 * Emin_adj / le_over_d**2",
       "FcE constant 0.85"),
@@ -349,6 +382,10 @@ TESTS: dict[str, list[str]] = {
     PY: SOIL_TESTS, SOILCAT: SOIL_TESTS,
     CABLE: ENGINE_TESTS, BEAM: ENGINE_TESTS, ROT: ENGINE_TESTS, SPRING: ENGINE_TESTS,
     LINK: ENGINE_TESTS,
+    CONC: ["tests/reference/test_pier_concrete.py"],
+    VERT: ["tests/reference/test_vertical_checks.py"],
+    SLIDE: ["tests/reference/test_sliding_check.py"],
+    LATCAP: ["tests/reference/test_lateral_capacity_check.py"],
 }
 IGNORE = shutil.ignore_patterns(".git", ".venv", "__pycache__", "*_results", ".*.spanstay-*",
                                 "*.egg-info", "build", "dist")

@@ -233,7 +233,14 @@ def test_termination_check_uses_the_lines_efficiency(rigid_run):
 # ------------------------------------------------ part 3: K_ser and K_u in the model
 @pytest.fixture(scope="module")
 def laminated():
-    sc = load_scenario(LAYOUT)
+    # the two-post starter's nailed launch post, here without the guys (the post alone
+    # takes the line, so its plies slip more)
+    import tomllib
+
+    data = tomllib.loads(LAYOUT.read_text(encoding="utf-8"))
+    for anchor in data["anchor"]:
+        anchor.pop("guy", None)
+    sc = read_scenario(data)
     return sc, structures(sc)
 
 
