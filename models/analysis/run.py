@@ -125,18 +125,22 @@ def _profile(p: Pass) -> tuple[np.ndarray, np.ndarray]:
     return along, z
 
 
+def _rider_profiles(result: RunResult):
+    """(rider key, along, z, mass) of the lightest and heaviest riders' complete passes."""
+    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
+        p = result.passes[label]
+        if p.complete and len(p.stations) >= 2:
+            along, z = _profile(p)
+            yield key, along, z, p.weight / STANDARD_GRAVITY
+
+
 def _ride(result: RunResult) -> None:
     rider = result.scenario.rider
     ground = result.scenario.ground
     gd = np.array([g[0] for g in ground.profile])
     gz = np.array([g[1] for g in ground.profile])
     # ride results only from complete passes: a partial profile gives a wrong speed
-    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
-        p = result.passes[label]
-        if not p.complete or len(p.stations) < 2:
-            continue
-        along, z = _profile(p)
-        mass = p.weight / STANDARD_GRAVITY
+    for key, along, z, mass in _rider_profiles(result):
         result.rides[key] = ride_speed(along, z, mass, rolling_resistance=rider.rolling_resistance,
                                        drag_area=rider.drag_area, start_speed=rider.start_speed,
                                        air_density=rider.air_density)
@@ -162,12 +166,7 @@ def _wind_rides(result: RunResult) -> dict:
 
     rider, limits = result.scenario.rider, result.scenario.ride
     out: dict = {"head": {}, "tail": {}}
-    for key, label in (("lightest", "ride_light"), ("heaviest", "ride_heavy")):
-        p = result.passes[label]
-        if not p.complete or len(p.stations) < 2:
-            continue
-        along, z = _profile(p)
-        mass = p.weight / STANDARD_GRAVITY
+    for key, along, z, mass in _rider_profiles(result):
         for name, wind in (("head", -limits.head_wind), ("tail", limits.tail_wind)):
             out[name][key] = ride_in_wind(along, z, mass, wind,
                                           rolling_resistance=rider.rolling_resistance,
