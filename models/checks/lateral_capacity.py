@@ -13,10 +13,13 @@ and holds for short and long members alike; Broms' closed forms check it in the 
 """
 from __future__ import annotations
 
+import math
+
 from spanstay.fem.errors import FemError
 from spanstay.models.checks.check import Check
 
-#: height bins of the cached pushovers (m): stations whose e falls in one bin share one
+#: height bins of the cached pushovers (m): stations whose e falls in one bin share one,
+#: pushed at the bin's top
 LOAD_HEIGHT_BIN = 0.05
 
 
@@ -29,7 +32,8 @@ def lateral_capacity_check(anchor, shear: float, moment: float, p_ratio: float,
     placed = anchor.footing
     name = anchor.spec.name
     e = max(moment / shear, 0.0) if shear > 0 else 0.0
-    key = ("lateral capacity", name, round(e / LOAD_HEIGHT_BIN))
+    # the bin's upper height: a load applied higher finds less capacity (safe side)
+    key = ("lateral capacity", name, math.ceil(e / LOAD_HEIGHT_BIN - 1e-9))
     if key not in cache:
         height = LOAD_HEIGHT_BIN * key[2]
         case = FootingCase(placed.footing, placed.profile, max(shear, 1.0), height,

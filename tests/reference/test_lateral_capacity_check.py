@@ -75,3 +75,23 @@ def test_clay_pier_capacity_is_rigid_statics_and_scales_with_the_factor():
     assert a.capacity * 2.0 <= expected
     assert b.capacity == pytest.approx(a.capacity * 2.0 / 3.0, rel=1e-9)
     assert "settings.soil_factor_of_safety" in a.source
+
+
+def test_a_load_between_cached_heights_takes_the_capacity_of_the_higher_one():
+    # rigid-pier statics (scipy, as above): the higher the load, the less the pier holds,
+    # so a load at e = 1.01 m checked with the push at the bin's top (1.05 m) is on the
+    # safe side of the statics at 1.01 m, and below the capacity at 1.00 m
+    gamma, phi = 18e3, 32.0
+    sand = SoilProfile((SoilLayer(0.0, 3.0, "sand", gamma, friction_angle_deg=phi,
+                                  k_initial=60e6),))
+    kp = np.tan(np.radians(45 + phi / 2)) ** 2
+
+    def p(z):
+        return 3 * kp * gamma * z * D
+
+    at_101, at_105 = _two_face_ultimate(p, 1.01), _two_face_ultimate(p, 1.05)
+    assert at_105 < at_101
+    check = lateral_capacity_check(_anchor(sand), 5e3, 5e3 * 1.01, 0.5, 2.5, {})
+    assert check.capacity * 2.5 == pytest.approx(at_105, rel=0.03)
+    lower = lateral_capacity_check(_anchor(sand), 5e3, 5e3 * 1.0, 0.5, 2.5, {})
+    assert check.capacity < lower.capacity
