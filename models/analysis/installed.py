@@ -125,11 +125,9 @@ def install(scenario: Scenario, rigid: frozenset[str] = frozenset(),
         if _wires_hold(system, wires, state):
             break
     else:
-        names = [n for n, a in system.anchors.items() if pretension_targets(a)]
         raise InputError(f"the guys' pretensions and the line's sag or tension cannot both be met "
                          f"on the finished structure ({MATCH_ROUNDS} rounds of matching); check "
-                         f"the pretensions against the line's pull",
-                         ", ".join(f'anchor "{n}".guy pretension' for n in names))
+                         f"the pretensions against the line's pull", _pretension_keys(system))
     for line in scenario.lines:
         lengths[line.name] = system.lines[line.name].L0
     for name, _ in wires:
@@ -158,6 +156,12 @@ def _wires_hold(system: System, wires, state: State) -> bool:
                for name, target in wires)
 
 
+def _pretension_keys(system: System) -> str:
+    """The scenario keys of the pretensions stated on the system's anchors."""
+    names = [n for n, a in system.anchors.items() if pretension_targets(a)]
+    return ", ".join(f'anchor "{n}".guy pretension' for n in names) or "anchor"
+
+
 def _wire_targets(system: System) -> list[tuple[str, float]]:
     """(cable group, pretension) of every pretensioned guy and brace wire."""
     return [t for anchor in system.anchors.values() for t in pretension_targets(anchor)]
@@ -169,10 +173,9 @@ def _tune_wires(system: System, wires, state: State) -> State:
     try:
         return tune_pretension(system.model, wires, state)
     except FemError as exc:
-        names = [n for n, a in system.anchors.items() if pretension_targets(a)]
-        where = ", ".join(f'anchor "{n}".guy pretension' for n in names) or "anchor"
         raise InputError(f"the guys cannot be brought to their pretension; largest imbalance "
-                         f"in {failure_parts(system, exc)}. Engine: {exc}", where) from None
+                         f"in {failure_parts(system, exc)}. Engine: {exc}",
+                         _pretension_keys(system)) from None
 
 
 def _match_lines(scenario: Scenario, system: System, state: State) -> State:

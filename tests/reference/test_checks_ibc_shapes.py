@@ -17,6 +17,7 @@ from spanstay.models.analysis.installed import install
 from spanstay.models.analysis.stations import run_pass
 from spanstay.models.checks.structural import structural_checks
 from spanstay.models.scenario.read import read_scenario
+from tests.reference.test_checks_ibc import grade_pull
 
 FT, INCH, LBF = 0.3048, 0.0254, 4.4482216152605
 HEIGHT, DEPTH = 3.0, 1.6
@@ -47,19 +48,6 @@ def solve(nominal, slab):
     design = run_pass(system, installed, line, stations, 700.0, "design", 288.15,
                       keep_states=True)
     return system, design, {c.id: c for c in structural_checks(system, design)}
-
-
-def grade_pull(system, state, s):
-    """Horizontal shear P (N) and moment M (N m) at grade of post a, by statics."""
-    line = system.lines["main"]
-    pos = system.model.coords + state.translation
-    n0, n1 = line.nodes[0], line.nodes[1]
-    e = (pos[n1] - pos[n0]) / np.linalg.norm(pos[n1] - pos[n0])
-    force = state.group(line.group).tension[0] * e
-    force[2] -= 0.5 * line.spec.rope.weight_per_length * line.segment_lengths(s)[0]
-    grade = pos[system.anchors["a"].grade_node]
-    m = np.cross(pos[n0] - grade, force)
-    return float(np.hypot(force[0], force[1])), float(np.hypot(m[0], m[1]))
 
 
 def eq_18_1(P, h, b):

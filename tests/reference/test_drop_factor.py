@@ -36,7 +36,7 @@ def test_a_stiffening_law_takes_a_sudden_weight_harder(n):
 @pytest.mark.parametrize("h", [0.0, 0.3, 0.8])
 def test_the_drop_on_an_independent_elastic_string(h):
     # Weightless elastic string, point load at mid-span between level supports 2a
-    # apart (statics plus Hooke's law, see /work/shared/references.md "Cables"):
+    # apart (statics of the two legs plus Hooke's law for their stretch):
     # F(d) = 2 T d / sqrt(a^2 + d^2), T = EA (2 sqrt(a^2 + d^2) - L0) / L0, measured
     # from the unloaded string's own sag. The drop solved independently: quad for the
     # work of F, brentq for W (h + d) = work.
