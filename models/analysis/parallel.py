@@ -16,6 +16,7 @@ from spanstay.models.analysis.run_case import Structure, run_case
 from spanstay.models.analysis.stations import Pass
 
 _TICKS = None  # the worker's progress queue (set by the pool initializer)
+_LATE_TICK_S = 30.0  # longest wait for a tick a finished worker has sent (a dead queue)
 
 
 def default_workers(n_cases: int) -> int:
@@ -32,10 +33,19 @@ def _init(ticks) -> None:
     _TICKS = ticks
 
 
-def _work(structure: Structure, case: LoadCase, stations_s: np.ndarray) -> Pass:
+def _work(structure: Structure, case: LoadCase,
+          stations_s: np.ndarray) -> tuple[Pass, int]:
+    """The case's pass and how many progress ticks it sent (a queue's feeder thread
+    may still hold ticks when the result arrives, so the parent waits for that many)."""
+    sent = 0
+
     def tick() -> None:
+        nonlocal sent
         _TICKS.put(case.name)
-    return run_case(structure, case, stations_s, progress=tick if _TICKS is not None else None)
+        sent += 1
+    result = run_case(structure, case, stations_s,
+                      progress=tick if _TICKS is not None else None)
+    return result, sent
 
 
 def run_cases(structures: dict[str, Structure], cases: tuple[LoadCase, ...],
@@ -62,12 +72,18 @@ def run_cases(structures: dict[str, Structure], cases: tuple[LoadCase, ...],
         futures = {pool.submit(_work, structures[c.slip], c, stations[c.line]): c.name
                    for c in cases}
         pending = set(futures)
+        sent = received = 0
         while pending:
             done, pending = wait(pending, timeout=0.1, return_when=FIRST_COMPLETED)
-            _drain(ticks, progress)
+            received += _drain(ticks, progress)
             for f in done:
-                out[futures[f]] = f.result()
-        _drain(ticks, progress)
+                out[futures[f]], n = f.result()
+                sent += n
+        while received < sent:  # ticks still on their way through the queue
+            name = ticks.get(timeout=_LATE_TICK_S)
+            received += 1
+            if progress is not None:
+                progress(name, 1)
     except BaseException:  # an interrupt or a failed case: stop the workers at once
         _stop(pool)
         raise
@@ -85,11 +101,14 @@ def _stop(pool: ProcessPoolExecutor) -> None:
             proc.terminate()
 
 
-def _drain(ticks, progress) -> None:
+def _drain(ticks, progress) -> int:
+    """Pass on the ticks that have arrived; how many there were."""
+    count = 0
     while True:
         try:
             name = ticks.get_nowait()
         except queue_module.Empty:
-            return
+            return count
+        count += 1
         if progress is not None:
             progress(name, 1)
